@@ -1,0 +1,39 @@
+import SQLite from 'better-sqlite3';
+import { mkdirSync } from 'node:fs';
+import { dirname } from 'node:path';
+import { Kysely, SqliteDialect } from 'kysely';
+import type { AuditLogTable, MailMessagesTable } from './schema/audit.table';
+import type { MembershipsTable, ProjectsTable } from './schema/projects.table';
+import type {
+  InvitationsTable,
+  PasswordResetsTable,
+  SessionsTable,
+  UsersTable,
+} from './schema/users.table';
+
+/** Every table Maculo stores, as Kysely sees them. */
+export interface Database {
+  users: UsersTable;
+  sessions: SessionsTable;
+  invitations: InvitationsTable;
+  password_resets: PasswordResetsTable;
+  projects: ProjectsTable;
+  memberships: MembershipsTable;
+  audit_log: AuditLogTable;
+  mail_messages: MailMessagesTable;
+}
+
+/** The app's database handle. */
+export type Db = Kysely<Database>;
+
+/** Opens (creating if needed) the SQLite file with the pragmas the app relies on. */
+export function openDatabase(path: string): { db: Db; sqlite: SQLite.Database } {
+  if (path !== ':memory:') mkdirSync(dirname(path), { recursive: true });
+  const sqlite = new SQLite(path);
+  sqlite.pragma('journal_mode = WAL');
+  sqlite.pragma('foreign_keys = ON');
+  sqlite.pragma('synchronous = NORMAL');
+  sqlite.pragma('busy_timeout = 5000');
+  const db = new Kysely<Database>({ dialect: new SqliteDialect({ database: sqlite }) });
+  return { db, sqlite };
+}

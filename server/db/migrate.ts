@@ -1,0 +1,22 @@
+import { Migrator, type Migration, type MigrationProvider } from 'kysely';
+import type { Db } from './database';
+import * as m0001 from './migrations/0001_foundation';
+
+/** Migrations in order; imported statically so they work the same under tsx, tests and builds. */
+const MIGRATIONS: Record<string, Migration> = {
+  '0001_foundation': m0001,
+};
+
+class StaticProvider implements MigrationProvider {
+  async getMigrations(): Promise<Record<string, Migration>> {
+    return MIGRATIONS;
+  }
+}
+
+/** Brings the database schema to the latest version; throws on the first failure. */
+export async function migrateToLatest(db: Db): Promise<string[]> {
+  const migrator = new Migrator({ db, provider: new StaticProvider() });
+  const { error, results } = await migrator.migrateToLatest();
+  if (error) throw error instanceof Error ? error : new Error(String(error));
+  return (results ?? []).filter((r) => r.status === 'Success').map((r) => r.migrationName);
+}

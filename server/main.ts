@@ -1,0 +1,52 @@
+import { pino } from 'pino';
+import { seedDemo } from '../seeds/demo';
+import { createApp } from './app';
+import { loadConfig } from './config';
+import { openDatabase } from './db/database';
+import { migrateToLatest } from './db/migrate';
+import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp';
+import { createSmtpMailer } from './mail/mailer';
+
+/** Starts Maculo: config, database and migrations, mail, demo data, HTTP. */
+async function main(): Promise<void> {
+  const config = loadConfig();
+  const log = pino({ level: config.logLevel });
+  const { db } = openDatabase(config.databasePath);
+  const applied = await migrateToLatest(db);
+  if (applied.length) log.info({ applied }, 'database migrated');
+
+  let fakeSmtp: FakeSmtp | null = null;
+  let smtpUrl = config.smtpUrl;
+  if (!smtpUrl) {
+    fakeSmtp = await startFakeSmtp(db);
+    smtpUrl = fakeSmtp.url;
+    log.info({ port: fakeSmtp.port }, 'no SMTP_URL set: e-mail goes to the local outbox (Admin → Outbox)');
+  }
+  const mailer = createSmtpMailer(smtpUrl, config.mailFrom);
+
+  if (config.seedDemo) {
+    const seeded = await seedDemo(db, { log, uploadsDir: config.uploadsDir });
+    if (seeded) log.info('demo project seeded (see README for the demo accounts)');
+  }
+
+  const app = createApp({ db, config, log, mailer });
+  const server = app.listen(config.port, config.host, () => {
+    log.info(`Maculo is running on ${config.publicUrl}`);
+  });
+
+  const shutdown = (signal: string) => {
+    log.info({ signal }, 'shutting down');
+    server.close(() => {
+      mailer.close();
+      void Promise.resolve(fakeSmtp?.close()).finally(() => void db.destroy().finally(() => process.exit(0)));
+    });
+    setTimeout(() => process.exit(0), 5000).unref();
+  };
+  process.on('SIGTERM', () => shutdown('SIGTERM'));
+  process.on('SIGINT', () => shutdown('SIGINT'));
+}
+
+main().catch((err: unknown) => {
+  console.error(err instanceof Error ? err.message : err);
+  process.exit(1);
+});
