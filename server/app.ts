@@ -11,7 +11,7 @@ import type { Config } from './config';
 import type { Db } from './db/database';
 import { apiNotFound, errorHandler } from './errors/error-handler';
 import type { Mailer } from './mail/mailer';
-import { csrfProtection } from './middleware/csrf';
+import { csrfProtection, xsrfCookie } from './middleware/csrf';
 import { adminRoutes } from './routes/admin.routes';
 import { authRoutes } from './routes/auth.routes';
 import { healthRoutes } from './routes/health.routes';
@@ -48,7 +48,10 @@ export function createApp(deps: AppDeps): Express {
       strictTransportSecurity: config.secureCookies,
     }),
   );
-  app.use(pinoHttp({ logger: log, autoLogging: { ignore: (req) => !req.url?.startsWith('/api') } }));
+  app.use(xsrfCookie({ secure: config.secureCookies }));
+  app.use(
+    pinoHttp({ logger: log, autoLogging: { ignore: (req) => !req.url?.startsWith('/api') } }),
+  );
 
   const store = new KyselySessionStore(db);
   const passport = createPassport(db);
@@ -72,7 +75,7 @@ export function createApp(deps: AppDeps): Express {
   );
   api.use(passport.initialize());
   api.use(passport.session());
-  api.use(csrfProtection({ secure: config.secureCookies }));
+  api.use(csrfProtection());
 
   api.use(healthRoutes(deps));
   api.use(authRoutes(deps, passport));
@@ -93,7 +96,10 @@ function serveClient(app: Express, dist: string): void {
   app.get('/{*splat}', (req, res, next) => {
     if (req.path.startsWith('/api') || !req.accepts('html')) return next();
     if (!existsSync(index)) {
-      res.status(503).type('text').send('The web client is not built yet. Run `npm start` (it builds first).');
+      res
+        .status(503)
+        .type('text')
+        .send('The web client is not built yet. Run `npm start` (it builds first).');
       return;
     }
     res.set('Cache-Control', 'no-cache').sendFile(index);

@@ -19,7 +19,13 @@ export interface Config {
   readonly loginRateLimit: number;
 }
 
-function intFrom(env: NodeJS.ProcessEnv, key: string, fallback: number, min: number, max: number): number {
+function intFrom(
+  env: NodeJS.ProcessEnv,
+  key: string,
+  fallback: number,
+  min: number,
+  max: number,
+): number {
   const raw = env[key];
   if (raw === undefined || raw === '') return fallback;
   const value = Number(raw);
@@ -56,11 +62,15 @@ function sessionSecretFor(env: NodeJS.ProcessEnv, databasePath: string): string 
 /** Reads and checks the configuration; fails fast with a readable message on a bad value. */
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
   const port = intFrom(env, 'PORT', 3000, 0, 65535);
-  const databasePath = env['DATABASE_PATH'] ? resolve(env['DATABASE_PATH']) : resolve('data/maculo.sqlite');
+  const databasePath = env['DATABASE_PATH']
+    ? resolve(env['DATABASE_PATH'])
+    : resolve('data/maculo.sqlite');
   const publicUrl = (env['PUBLIC_URL'] ?? `http://localhost:${port}`).replace(/\/+$/, '');
-  if (!/^https?:\/\//.test(publicUrl)) throw new Error('PUBLIC_URL must start with http:// or https://.');
+  if (!/^https?:\/\//.test(publicUrl))
+    throw new Error('PUBLIC_URL must start with http:// or https://.');
   const smtpUrl = env['SMTP_URL'] || null;
-  if (smtpUrl && !/^smtps?:\/\//.test(smtpUrl)) throw new Error('SMTP_URL must start with smtp:// or smtps://.');
+  if (smtpUrl && !/^smtps?:\/\//.test(smtpUrl))
+    throw new Error('SMTP_URL must start with smtp:// or smtps://.');
   return Object.freeze({
     port,
     host: env['HOST'] ?? '0.0.0.0',

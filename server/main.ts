@@ -20,7 +20,10 @@ async function main(): Promise<void> {
   if (!smtpUrl) {
     fakeSmtp = await startFakeSmtp(db);
     smtpUrl = fakeSmtp.url;
-    log.info({ port: fakeSmtp.port }, 'no SMTP_URL set: e-mail goes to the local outbox (Admin → Outbox)');
+    log.info(
+      { port: fakeSmtp.port },
+      'no SMTP_URL set: e-mail goes to the local outbox (Admin → Outbox)',
+    );
   }
   const mailer = createSmtpMailer(smtpUrl, config.mailFrom);
 
@@ -38,7 +41,9 @@ async function main(): Promise<void> {
     log.info({ signal }, 'shutting down');
     server.close(() => {
       mailer.close();
-      void Promise.resolve(fakeSmtp?.close()).finally(() => void db.destroy().finally(() => process.exit(0)));
+      void Promise.resolve(fakeSmtp?.close()).finally(
+        () => void db.destroy().finally(() => process.exit(0)),
+      );
     });
     setTimeout(() => process.exit(0), 5000).unref();
   };

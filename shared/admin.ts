@@ -3,7 +3,12 @@ import { z } from 'zod';
 /** Body of `POST /api/admin/users`; without a password the person gets a set-password e-mail. */
 export const createUserBodySchema = z
   .object({
-    email: z.string().trim().toLowerCase().max(254).email({ message: 'This is not a valid e-mail address.' }),
+    email: z
+      .string()
+      .trim()
+      .toLowerCase()
+      .max(254)
+      .email({ message: 'This is not a valid e-mail address.' }),
     name: z.string().trim().min(1, { message: 'Please give a name.' }).max(120),
     isAdmin: z.boolean().default(false),
     password: z

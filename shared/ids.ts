@@ -6,12 +6,10 @@ export const idSchema = z
   .regex(/^[0-9a-f]{20}$/, { message: 'This id is not valid: ids are 20 hexadecimal characters.' });
 
 /** Project slugs: lowercase letters, digits and single hyphens, 3–50 characters. */
-export const slugSchema = z
-  .string()
-  .regex(/^[a-z0-9](?:[a-z0-9]|-(?=[a-z0-9])){2,49}$/, {
-    message:
-      'A project slug has 3–50 lowercase letters, digits or single hyphens, and starts and ends with a letter or digit.',
-  });
+export const slugSchema = z.string().regex(/^[a-z0-9](?:[a-z0-9]|-(?=[a-z0-9])){2,49}$/, {
+  message:
+    'A project slug has 3–50 lowercase letters, digits or single hyphens, and starts and ends with a letter or digit.',
+});
 
 /** Keyset pagination query: `?after=<cursor>&limit=`. */
 export const pageQuerySchema = z

@@ -24,20 +24,30 @@ function isValidTimeZone(zone: string): boolean {
   }
 }
 
-export const timeZoneSchema = z
-  .string()
-  .min(1)
-  .max(64)
-  .refine(isValidTimeZone, { message: 'This is not a known IANA time zone (e.g. Africa/Nairobi).' });
+export const timeZoneSchema = z.string().min(1).max(64).refine(isValidTimeZone, {
+  message: 'This is not a known IANA time zone (e.g. Africa/Nairobi).',
+});
 
 const settingsShape = {
-  name: z.string().trim().min(3, { message: 'A project name needs at least 3 characters.' }).max(120),
+  name: z
+    .string()
+    .trim()
+    .min(3, { message: 'A project name needs at least 3 characters.' })
+    .max(120),
   description: z.string().trim().max(2000),
   targetSpeciesScientific: z.string().trim().min(3).max(120),
   targetSpeciesCommon: z.string().trim().min(2).max(120),
   timezone: timeZoneSchema,
-  independenceMinutes: z.number().int().min(1).max(24 * 60),
-  occasionHours: z.number().int().min(1).max(24 * 30),
+  independenceMinutes: z
+    .number()
+    .int()
+    .min(1)
+    .max(24 * 60),
+  occasionHours: z
+    .number()
+    .int()
+    .min(1)
+    .max(24 * 30),
   reviewersPerSighting: z.union([z.literal(1), z.literal(2)]),
   sensitivity: z.enum(SENSITIVITY_CATEGORIES),
   sensitivityReviewDate: z.string().date().nullable(),
@@ -102,7 +112,12 @@ export const setMemberBodySchema = z.object({ role: roleSchema }).strict();
 /** Body of `POST /api/projects/:slug/invitations`. */
 export const inviteBodySchema = z
   .object({
-    email: z.string().trim().toLowerCase().max(254).email({ message: 'This is not a valid e-mail address.' }),
+    email: z
+      .string()
+      .trim()
+      .toLowerCase()
+      .max(254)
+      .email({ message: 'This is not a valid e-mail address.' }),
     role: roleSchema,
   })
   .strict();

@@ -17,18 +17,26 @@ export function createPassport(db: Db): PassportStatic {
   const instance = new passport.Passport();
 
   instance.use(
-    new LocalStrategy({ usernameField: 'email', passwordField: 'password' }, (email, password, done) => {
-      db.selectFrom('users')
-        .selectAll()
-        .where('email', '=', email.trim().toLowerCase())
-        .executeTakeFirst()
-        .then(async (row) => {
-          const ok = await verifyPassword(row?.password_hash ?? null, password);
-          if (!row || !ok || row.disabled) return done(null, false);
-          done(null, { id: row.id, email: row.email, name: row.name, isAdmin: row.is_admin === 1 });
-        })
-        .catch(done);
-    }),
+    new LocalStrategy(
+      { usernameField: 'email', passwordField: 'password' },
+      (email, password, done) => {
+        db.selectFrom('users')
+          .selectAll()
+          .where('email', '=', email.trim().toLowerCase())
+          .executeTakeFirst()
+          .then(async (row) => {
+            const ok = await verifyPassword(row?.password_hash ?? null, password);
+            if (!row || !ok || row.disabled) return done(null, false);
+            done(null, {
+              id: row.id,
+              email: row.email,
+              name: row.name,
+              isAdmin: row.is_admin === 1,
+            });
+          })
+          .catch(done);
+      },
+    ),
   );
 
   instance.serializeUser((user, done) => done(null, user.id));

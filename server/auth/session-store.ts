@@ -43,9 +43,14 @@ export class KyselySessionStore extends session.Store {
     this.db
       .insertInto('sessions')
       .values(row)
-      .onConflict((oc) => oc.column('sid').doUpdateSet({ user_id: row.user_id, sess: row.sess, expires_at: expires }))
+      .onConflict((oc) =>
+        oc.column('sid').doUpdateSet({ user_id: row.user_id, sess: row.sess, expires_at: expires }),
+      )
       .execute()
-      .then(() => cb?.(), (err: unknown) => cb?.(err));
+      .then(
+        () => cb?.(),
+        (err: unknown) => cb?.(err),
+      );
   }
 
   override destroy(sid: string, cb?: Callback): void {
@@ -53,7 +58,10 @@ export class KyselySessionStore extends session.Store {
       .deleteFrom('sessions')
       .where('sid', '=', sid)
       .execute()
-      .then(() => cb?.(), (err: unknown) => cb?.(err));
+      .then(
+        () => cb?.(),
+        (err: unknown) => cb?.(err),
+      );
   }
 
   override touch(sid: string, sess: session.SessionData, cb?: Callback): void {
@@ -62,7 +70,10 @@ export class KyselySessionStore extends session.Store {
       .set({ expires_at: this.expiryOf(sess) })
       .where('sid', '=', sid)
       .execute()
-      .then(() => cb?.(), (err: unknown) => cb?.(err));
+      .then(
+        () => cb?.(),
+        (err: unknown) => cb?.(err),
+      );
   }
 
   /** Deletes expired sessions; returns how many went. */

@@ -20,7 +20,10 @@ function fromBodyParser(err: HttpishError): ApiError | null {
     return new ApiError('payload_too_large', 'The request body is larger than the server accepts.');
   }
   if (err.type === 'encoding.unsupported' || err.type === 'charset.unsupported') {
-    return new ApiError('bad_request', 'The request body uses an encoding the server does not accept.');
+    return new ApiError(
+      'bad_request',
+      'The request body uses an encoding the server does not accept.',
+    );
   }
   const status = Number(err.status ?? err.statusCode);
   if (Number.isInteger(status) && status >= 400 && status < 500) {
@@ -40,7 +43,8 @@ export function errorHandler(log: Logger): ErrorRequestHandler {
     if (err instanceof ApiError) apiError = err;
     else if (err instanceof ZodError) {
       apiError = new ApiError('validation_failed', 'Some fields are not valid.', zodDetails(err));
-    } else if (typeof err === 'object' && err !== null) apiError = fromBodyParser(err as HttpishError);
+    } else if (typeof err === 'object' && err !== null)
+      apiError = fromBodyParser(err as HttpishError);
 
     if (!apiError) {
       log.error({ err, url: req.originalUrl, method: req.method }, 'unexpected error');

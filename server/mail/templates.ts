@@ -35,7 +35,12 @@ export function invitationMail(input: {
 }
 
 /** A password reset link. */
-export function passwordResetMail(input: { to: string; name: string; link: string; minutes: number }): MailMessage {
+export function passwordResetMail(input: {
+  to: string;
+  name: string;
+  link: string;
+  minutes: number;
+}): MailMessage {
   const lines = [
     `Hello ${input.name},`,
     `Someone asked to reset the password of your Maculo account. Open the link below within ${input.minutes} minutes to choose a new password. The link works once.`,
@@ -49,7 +54,12 @@ export function passwordResetMail(input: { to: string; name: string; link: strin
 }
 
 /** Sent when an admin creates an account without a password. */
-export function accountCreatedMail(input: { to: string; name: string; link: string; minutes: number }): MailMessage {
+export function accountCreatedMail(input: {
+  to: string;
+  name: string;
+  link: string;
+  minutes: number;
+}): MailMessage {
   const lines = [
     `Hello ${input.name},`,
     `An administrator created a Maculo account for you. Open the link below within ${Math.round(input.minutes / 60)} hours to choose your password.`,

@@ -70,7 +70,11 @@ export function adminOnly(): Guard {
 }
 
 /** The project's role row for a user, or null when they are not a member. */
-export async function membershipRole(db: Db, projectId: string, userId: string): Promise<ProjectRole | null> {
+export async function membershipRole(
+  db: Db,
+  projectId: string,
+  userId: string,
+): Promise<ProjectRole | null> {
   const row = await db
     .selectFrom('memberships')
     .select('role')
@@ -84,17 +88,26 @@ export async function membershipRole(db: Db, projectId: string, userId: string):
  * Project routes: resolves `:slug`, then checks sign-in, membership and role, before anything else.
  * `allowAdmin` lets global admins in without a membership (settings, members, invitations).
  */
-export function projectRole(db: Db, role: ProjectRole, options: { allowAdmin?: boolean } = {}): Guard {
+export function projectRole(
+  db: Db,
+  role: ProjectRole,
+  options: { allowAdmin?: boolean } = {},
+): Guard {
   const allowAdmin = options.allowAdmin ?? false;
   const handler = async (req: Request, _res: Response, next: NextFunction) => {
     const user = requireUser(req);
     const slug = slugSchema.safeParse(req.params['slug']);
     if (!slug.success) throw new ApiError('bad_request', 'This project address is not valid.');
-    const row = await db.selectFrom('projects').selectAll().where('slug', '=', slug.data).executeTakeFirst();
+    const row = await db
+      .selectFrom('projects')
+      .selectAll()
+      .where('slug', '=', slug.data)
+      .executeTakeFirst();
     if (!row) throw new ApiError('not_found', `There is no project "${slug.data}".`);
     const held = await membershipRole(db, row.id, user.id);
     const viaAdmin = allowAdmin && user.isAdmin;
-    if (!held && !viaAdmin) throw new ApiError('forbidden', 'You are not a member of this project.');
+    if (!held && !viaAdmin)
+      throw new ApiError('forbidden', 'You are not a member of this project.');
     if (!viaAdmin && !roleAtLeast(held, role)) {
       throw new ApiError(
         'forbidden',

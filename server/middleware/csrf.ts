@@ -1,6 +1,6 @@
 import { randomBytes, timingSafeEqual } from 'node:crypto';
 import { parse } from 'cookie';
-import type { RequestHandler } from 'express';
+import type { Request, RequestHandler, Response } from 'express';
 import { ApiError } from '../errors/api-error';
 
 /** Angular's HttpClient reads this cookie and echoes it in the X-XSRF-TOKEN header. */
@@ -8,6 +8,7 @@ export const XSRF_COOKIE = 'XSRF-TOKEN';
 export const XSRF_HEADER = 'x-xsrf-token';
 
 const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
+const TOKEN_SHAPE = /^[A-Za-z0-9_-]{20,100}$/;
 
 function same(a: string, b: string): boolean {
   const x = Buffer.from(a);
@@ -15,31 +16,39 @@ function same(a: string, b: string): boolean {
   return x.length === y.length && timingSafeEqual(x, y);
 }
 
-/**
- * Double-submit CSRF protection: every response makes sure the browser holds a token cookie;
- * every state-changing request must send the same token in the header.
- */
-export function csrfProtection(options: { secure: boolean }): RequestHandler {
+function tokenOf(req: Request): string | undefined {
+  const token = parse(req.headers.cookie ?? '')[XSRF_COOKIE];
+  return token && TOKEN_SHAPE.test(token) ? token : undefined;
+}
+
+function issue(res: Response, secure: boolean): void {
+  res.cookie(XSRF_COOKIE, randomBytes(24).toString('base64url'), {
+    httpOnly: false,
+    sameSite: 'lax',
+    secure,
+    path: '/',
+  });
+}
+
+/** Makes sure every browser holds a token cookie: pages and API answers alike hand one out. */
+export function xsrfCookie(options: { secure: boolean }): RequestHandler {
   return (req, res, next) => {
-    const cookies = parse(req.headers.cookie ?? '');
-    let token = cookies[XSRF_COOKIE];
-    if (!token || !/^[A-Za-z0-9_-]{20,100}$/.test(token)) {
-      token = randomBytes(24).toString('base64url');
-      res.cookie(XSRF_COOKIE, token, {
-        httpOnly: false,
-        sameSite: 'lax',
-        secure: options.secure,
-        path: '/',
-      });
-      if (!SAFE_METHODS.has(req.method)) {
-        throw new ApiError('csrf_failed', 'Your page has expired. Reload it and try again.');
-      }
-    }
-    if (!SAFE_METHODS.has(req.method)) {
-      const header = req.get(XSRF_HEADER);
-      if (!header || !same(header, token)) {
-        throw new ApiError('csrf_failed', 'Your page has expired. Reload it and try again.');
-      }
+    if (!tokenOf(req)) issue(res, options.secure);
+    next();
+  };
+}
+
+/**
+ * Double-submit CSRF check: every state-changing API request must echo the cookie's token in the
+ * X-XSRF-TOKEN header, which a page on another site cannot read or set.
+ */
+export function csrfProtection(): RequestHandler {
+  return (req, _res, next) => {
+    if (SAFE_METHODS.has(req.method)) return next();
+    const token = tokenOf(req);
+    const header = req.get(XSRF_HEADER);
+    if (!token || !header || !same(header, token)) {
+      throw new ApiError('csrf_failed', 'Your page has expired. Reload it and try again.');
     }
     next();
   };

@@ -19,7 +19,10 @@ function summary(details: { path: string; message: string }[]): string {
   const first = details[0];
   if (!first) return 'The request is not valid.';
   const prefix = first.path === '(body)' ? '' : `${first.path}: `;
-  const more = details.length > 1 ? ` (and ${details.length - 1} more problem${details.length > 2 ? 's' : ''})` : '';
+  const more =
+    details.length > 1
+      ? ` (and ${details.length - 1} more problem${details.length > 2 ? 's' : ''})`
+      : '';
   return `${prefix}${first.message}${more}`;
 }
 

@@ -75,10 +75,17 @@ export function adminRoutes({ db, config, mailer }: AppDeps): Router {
     if (page.after) {
       const [at, id] = decodeCursor(page.after, 2) as [string, string];
       query = query.where((eb) =>
-        eb.or([eb('received_at', '<', at), eb.and([eb('received_at', '=', at), eb('id', '<', id)])]),
+        eb.or([
+          eb('received_at', '<', at),
+          eb.and([eb('received_at', '=', at), eb('id', '<', id)]),
+        ]),
       );
     }
-    const rows = await query.orderBy('received_at', 'desc').orderBy('id', 'desc').limit(page.limit + 1).execute();
+    const rows = await query
+      .orderBy('received_at', 'desc')
+      .orderBy('id', 'desc')
+      .limit(page.limit + 1)
+      .execute();
     const items = rows.slice(0, page.limit).map(toOutbox);
     const last = rows.length > page.limit ? rows[page.limit - 1] : undefined;
     res.json({ items, next: last ? encodeCursor([last.received_at, last.id]) : null });
@@ -86,7 +93,11 @@ export function adminRoutes({ db, config, mailer }: AppDeps): Router {
 
   router.get('/admin/outbox/:id', adminOnly(), async (req, res) => {
     const id = parseWith(idSchema, req.params['id'], 'id');
-    const row = await db.selectFrom('mail_messages').selectAll().where('id', '=', id).executeTakeFirst();
+    const row = await db
+      .selectFrom('mail_messages')
+      .selectAll()
+      .where('id', '=', id)
+      .executeTakeFirst();
     if (!row) throw new ApiError('not_found', 'This message was not found.');
     res.json(toOutbox(row));
   });

@@ -19,7 +19,9 @@ import { nowIso } from '../services/ids';
 import { meFor, setPassword, toSessionUser } from '../services/users.service';
 
 function logIn(req: Request, user: Express.User): Promise<void> {
-  return new Promise((resolve, reject) => req.logIn(user, (err: unknown) => (err ? reject(err) : resolve())));
+  return new Promise((resolve, reject) =>
+    req.logIn(user, (err: unknown) => (err ? reject(err) : resolve())),
+  );
 }
 
 function authenticate(passport: PassportStatic, req: Request, res: Response, next: NextFunction) {
@@ -49,12 +51,18 @@ export function authRoutes({ db, config, mailer }: AppDeps, passport: PassportSt
     const user = await authenticate(passport, req, res, next);
     if (!user) throw new ApiError('invalid_credentials', 'Wrong e-mail or password.');
     await logIn(req, user);
-    await db.updateTable('users').set({ last_login_at: nowIso() }).where('id', '=', user.id).execute();
+    await db
+      .updateTable('users')
+      .set({ last_login_at: nowIso() })
+      .where('id', '=', user.id)
+      .execute();
     res.json(await meFor(db, user.id));
   });
 
   router.post('/auth/logout', publicRoute(), async (req, res) => {
-    await new Promise<void>((resolve, reject) => req.logout((err: unknown) => (err ? reject(err) : resolve())));
+    await new Promise<void>((resolve, reject) =>
+      req.logout((err: unknown) => (err ? reject(err) : resolve())),
+    );
     await new Promise<void>((resolve) => req.session.destroy(() => resolve()));
     res.clearCookie('maculo.sid', { path: '/' });
     res.status(204).end();
@@ -67,7 +75,11 @@ export function authRoutes({ db, config, mailer }: AppDeps, passport: PassportSt
   router.post('/auth/password', signedIn(), async (req, res) => {
     const body = parseWith(changePasswordBodySchema, req.body);
     const user = userOf(req);
-    const row = await db.selectFrom('users').select('password_hash').where('id', '=', user.id).executeTakeFirstOrThrow();
+    const row = await db
+      .selectFrom('users')
+      .select('password_hash')
+      .where('id', '=', user.id)
+      .executeTakeFirstOrThrow();
     if (!(await verifyPassword(row.password_hash, body.currentPassword))) {
       throw new ApiError('invalid_credentials', 'Your current password is not right.');
     }
@@ -97,7 +109,11 @@ export function authRoutes({ db, config, mailer }: AppDeps, passport: PassportSt
     const token = tokenParam(req);
     const body = parseWith(acceptInvitationBodySchema, req.body);
     const userId = await acceptInvitation(db, token, body);
-    const row = await db.selectFrom('users').selectAll().where('id', '=', userId).executeTakeFirstOrThrow();
+    const row = await db
+      .selectFrom('users')
+      .selectAll()
+      .where('id', '=', userId)
+      .executeTakeFirstOrThrow();
     await logIn(req, toSessionUser(row));
     res.json(await meFor(db, userId));
   });

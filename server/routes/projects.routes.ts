@@ -1,6 +1,10 @@
 import { Router } from 'express';
 import { idSchema } from '../../shared/ids';
-import { inviteBodySchema, setMemberBodySchema, updateProjectBodySchema } from '../../shared/projects';
+import {
+  inviteBodySchema,
+  setMemberBodySchema,
+  updateProjectBodySchema,
+} from '../../shared/projects';
 import { roleAtLeast } from '../../shared/roles';
 import type { AppDeps } from '../app';
 import { ApiError } from '../errors/api-error';
@@ -23,16 +27,30 @@ export function projectsRoutes({ db, config, mailer }: AppDeps): Router {
     res.json(toProjectDetail(row, role));
   });
 
-  router.patch('/projects/:slug', projectRole(db, 'ecologist', { allowAdmin: true }), async (req, res) => {
-    const body = parseWith(updateProjectBodySchema, req.body);
-    const { row, role } = projectOf(req);
-    res.json(toProjectDetail(await updateProject(db, row, body, userOf(req).id), role));
-  });
+  router.patch(
+    '/projects/:slug',
+    projectRole(db, 'ecologist', { allowAdmin: true }),
+    async (req, res) => {
+      const body = parseWith(updateProjectBodySchema, req.body);
+      const { row, role } = projectOf(req);
+      res.json(toProjectDetail(await updateProject(db, row, body, userOf(req).id), role));
+    },
+  );
 
-  router.get('/projects/:slug/members', projectRole(db, 'volunteer', { allowAdmin: true }), async (req, res) => {
-    const { row, role, viaAdmin } = projectOf(req);
-    res.json(await listMembers(db, row.id, viaAdmin || roleAtLeast(role, 'ecologist') || userOf(req).isAdmin));
-  });
+  router.get(
+    '/projects/:slug/members',
+    projectRole(db, 'volunteer', { allowAdmin: true }),
+    async (req, res) => {
+      const { row, role, viaAdmin } = projectOf(req);
+      res.json(
+        await listMembers(
+          db,
+          row.id,
+          viaAdmin || roleAtLeast(role, 'ecologist') || userOf(req).isAdmin,
+        ),
+      );
+    },
+  );
 
   router.put(
     '/projects/:slug/members/:userId',
@@ -42,7 +60,10 @@ export function projectsRoutes({ db, config, mailer }: AppDeps): Router {
       const body = parseWith(setMemberBodySchema, req.body);
       const actor = userOf(req);
       if (userId === actor.id && !actor.isAdmin) {
-        throw new ApiError('conflict', 'You cannot change your own role; ask another ecologist or an admin.');
+        throw new ApiError(
+          'conflict',
+          'You cannot change your own role; ask another ecologist or an admin.',
+        );
       }
       await setMemberRole(db, projectOf(req).row.id, userId, body.role, actor.id);
       res.json(await listMembers(db, projectOf(req).row.id, true));
@@ -56,7 +77,10 @@ export function projectsRoutes({ db, config, mailer }: AppDeps): Router {
       const userId = parseWith(idSchema, req.params['userId'], 'userId');
       const actor = userOf(req);
       if (userId === actor.id && !actor.isAdmin) {
-        throw new ApiError('conflict', 'You cannot remove yourself; ask another ecologist or an admin.');
+        throw new ApiError(
+          'conflict',
+          'You cannot remove yourself; ask another ecologist or an admin.',
+        );
       }
       await removeMember(db, projectOf(req).row.id, userId, actor.id);
       res.status(204).end();

@@ -19,5 +19,8 @@ export function decodeCursor(cursor: string, arity: number): (string | number)[]
   } catch {
     // fall through to the error below
   }
-  throw new ApiError('bad_request', 'The page cursor is not valid. Start again from the first page.');
+  throw new ApiError(
+    'bad_request',
+    'The page cursor is not valid. Start again from the first page.',
+  );
 }

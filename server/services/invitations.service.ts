@@ -124,16 +124,23 @@ async function usableInvitation(db: Db, token: string) {
     ])
     .where('invitations.token_hash', '=', hashToken(token))
     .executeTakeFirst();
-  if (!row) throw new ApiError('not_found', 'This invitation link is not valid. Ask for a new invitation.');
-  if (row.accepted_at) throw new ApiError('gone', 'This invitation has already been used. Sign in instead.');
-  if (row.expires_at <= nowIso()) throw new ApiError('gone', 'This invitation has expired. Ask for a new one.');
+  if (!row)
+    throw new ApiError('not_found', 'This invitation link is not valid. Ask for a new invitation.');
+  if (row.accepted_at)
+    throw new ApiError('gone', 'This invitation has already been used. Sign in instead.');
+  if (row.expires_at <= nowIso())
+    throw new ApiError('gone', 'This invitation has expired. Ask for a new one.');
   return row;
 }
 
 /** What the invitation page shows before the person accepts. */
 export async function previewInvitation(db: Db, token: string): Promise<InvitationPreview> {
   const row = await usableInvitation(db, token);
-  const account = await db.selectFrom('users').select('id').where('email', '=', row.email).executeTakeFirst();
+  const account = await db
+    .selectFrom('users')
+    .select('id')
+    .where('email', '=', row.email)
+    .executeTakeFirst();
   return {
     email: row.email,
     projectSlug: row.slug,
@@ -154,11 +161,18 @@ export async function acceptInvitation(
   input: { name: string; password: string },
 ): Promise<string> {
   const invitation = await usableInvitation(db, token);
-  const existing = await db.selectFrom('users').selectAll().where('email', '=', invitation.email).executeTakeFirst();
+  const existing = await db
+    .selectFrom('users')
+    .selectAll()
+    .where('email', '=', invitation.email)
+    .executeTakeFirst();
   if (existing) {
     const ok = await verifyPassword(existing.password_hash, input.password);
     if (!ok || existing.disabled) {
-      throw new ApiError('invalid_credentials', 'Wrong password for the existing account with this e-mail.');
+      throw new ApiError(
+        'invalid_credentials',
+        'Wrong password for the existing account with this e-mail.',
+      );
     }
   } else if (input.password.length < 10) {
     throw new ApiError('validation_failed', 'Use at least 10 characters for a password.');
@@ -194,8 +208,15 @@ export async function acceptInvitation(
     }
     await trx
       .insertInto('memberships')
-      .values({ project_id: invitation.project_id, user_id: userId, role: invitation.role, created_at: now })
-      .onConflict((oc) => oc.columns(['project_id', 'user_id']).doUpdateSet({ role: invitation.role }))
+      .values({
+        project_id: invitation.project_id,
+        user_id: userId,
+        role: invitation.role,
+        created_at: now,
+      })
+      .onConflict((oc) =>
+        oc.columns(['project_id', 'user_id']).doUpdateSet({ role: invitation.role }),
+      )
       .execute();
     await recordAudit(trx, {
       userId,

@@ -6,11 +6,22 @@ import { recordAudit } from './audit.service';
 import { nowIso } from './ids';
 
 /** A project's members; e-mails only for those who manage the team. */
-export async function listMembers(db: Db, projectId: string, showEmails: boolean): Promise<MemberView[]> {
+export async function listMembers(
+  db: Db,
+  projectId: string,
+  showEmails: boolean,
+): Promise<MemberView[]> {
   const rows = await db
     .selectFrom('memberships')
     .innerJoin('users', 'users.id', 'memberships.user_id')
-    .select(['users.id', 'users.name', 'users.email', 'users.disabled', 'memberships.role', 'memberships.created_at'])
+    .select([
+      'users.id',
+      'users.name',
+      'users.email',
+      'users.disabled',
+      'memberships.role',
+      'memberships.created_at',
+    ])
     .where('memberships.project_id', '=', projectId)
     .execute();
   const order = (role: string) => -PROJECT_ROLES.indexOf(role as ProjectRole);
@@ -34,7 +45,11 @@ export async function setMemberRole(
   role: ProjectRole,
   actorId: string,
 ): Promise<void> {
-  const user = await db.selectFrom('users').select('id').where('id', '=', userId).executeTakeFirst();
+  const user = await db
+    .selectFrom('users')
+    .select('id')
+    .where('id', '=', userId)
+    .executeTakeFirst();
   if (!user) throw new ApiError('not_found', 'This user was not found.');
   await db.transaction().execute(async (trx) => {
     const before = await trx
@@ -61,7 +76,12 @@ export async function setMemberRole(
 }
 
 /** Removes a member from a project. */
-export async function removeMember(db: Db, projectId: string, userId: string, actorId: string): Promise<void> {
+export async function removeMember(
+  db: Db,
+  projectId: string,
+  userId: string,
+  actorId: string,
+): Promise<void> {
   await db.transaction().execute(async (trx) => {
     const result = await trx
       .deleteFrom('memberships')

@@ -28,8 +28,17 @@ async function issueToken(db: Db, userId: string, minutes: number): Promise<stri
  * Sends a reset link when the address belongs to an active account. The caller answers the same
  * way whatever happens here, so nobody can learn which addresses have accounts.
  */
-export async function requestPasswordReset(db: Db, mailer: Mailer, email: string, publicUrl: string): Promise<void> {
-  const user = await db.selectFrom('users').selectAll().where('email', '=', email).executeTakeFirst();
+export async function requestPasswordReset(
+  db: Db,
+  mailer: Mailer,
+  email: string,
+  publicUrl: string,
+): Promise<void> {
+  const user = await db
+    .selectFrom('users')
+    .selectAll()
+    .where('email', '=', email)
+    .executeTakeFirst();
   if (!user || user.disabled) return;
   const token = await issueToken(db, user.id, RESET_MINUTES);
   await mailer.send(
@@ -61,12 +70,22 @@ export async function sendAccountCreated(
 }
 
 /** Uses a reset token once to set a new password; every session of the account ends. */
-export async function confirmPasswordReset(db: Db, token: string, newPassword: string): Promise<void> {
+export async function confirmPasswordReset(
+  db: Db,
+  token: string,
+  newPassword: string,
+): Promise<void> {
   const now = nowIso();
   const row = await db
     .selectFrom('password_resets')
     .innerJoin('users', 'users.id', 'password_resets.user_id')
-    .select(['password_resets.id', 'password_resets.user_id', 'password_resets.expires_at', 'password_resets.used_at', 'users.disabled'])
+    .select([
+      'password_resets.id',
+      'password_resets.user_id',
+      'password_resets.expires_at',
+      'password_resets.used_at',
+      'users.disabled',
+    ])
     .where('password_resets.token_hash', '=', hashToken(token))
     .executeTakeFirst();
   if (!row || row.used_at || row.expires_at <= now || row.disabled) {

@@ -14,7 +14,9 @@ import { recordAudit } from './audit.service';
 import { newId, nowIso } from './ids';
 
 /** Public coordinate precision of a project in degrees; null = withheld, undefined = exact. */
-export function publicPrecisionOf(row: Pick<ProjectsTable, 'sensitivity'>): number | null | undefined {
+export function publicPrecisionOf(
+  row: Pick<ProjectsTable, 'sensitivity'>,
+): number | null | undefined {
   return PUBLIC_PRECISION[row.sensitivity as SensitivityCategory];
 }
 
@@ -45,7 +47,9 @@ export async function listProjectsFor(db: Db, user: Express.User): Promise<Proje
   const rows = await db
     .selectFrom('projects')
     .leftJoin('memberships', (join) =>
-      join.onRef('memberships.project_id', '=', 'projects.id').on('memberships.user_id', '=', user.id),
+      join
+        .onRef('memberships.project_id', '=', 'projects.id')
+        .on('memberships.user_id', '=', user.id),
     )
     .select(['projects.slug', 'projects.name', 'memberships.role'])
     .orderBy('projects.name')
@@ -70,9 +74,18 @@ const COLUMN: Record<keyof UpdateProjectBody, keyof ProjectsTable> = {
 };
 
 /** Creates a project; the slug must be new. */
-export async function createProject(db: Db, input: CreateProjectBody, actorId: string): Promise<ProjectsTable> {
-  const taken = await db.selectFrom('projects').select('id').where('slug', '=', input.slug).executeTakeFirst();
-  if (taken) throw new ApiError('conflict', `The slug "${input.slug}" is already used by another project.`);
+export async function createProject(
+  db: Db,
+  input: CreateProjectBody,
+  actorId: string,
+): Promise<ProjectsTable> {
+  const taken = await db
+    .selectFrom('projects')
+    .select('id')
+    .where('slug', '=', input.slug)
+    .executeTakeFirst();
+  if (taken)
+    throw new ApiError('conflict', `The slug "${input.slug}" is already used by another project.`);
   const row: ProjectsTable = {
     id: newId(),
     slug: input.slug,
@@ -121,7 +134,11 @@ export async function updateProject(
   }
   if (Object.keys(set).length === 0) return project;
   return db.transaction().execute(async (trx) => {
-    await trx.updateTable('projects').set(set as Partial<ProjectsTable>).where('id', '=', project.id).execute();
+    await trx
+      .updateTable('projects')
+      .set(set as Partial<ProjectsTable>)
+      .where('id', '=', project.id)
+      .execute();
     await recordAudit(trx, {
       userId: actorId,
       projectId: project.id,
@@ -131,6 +148,10 @@ export async function updateProject(
       before,
       after: patch,
     });
-    return trx.selectFrom('projects').selectAll().where('id', '=', project.id).executeTakeFirstOrThrow();
+    return trx
+      .selectFrom('projects')
+      .selectAll()
+      .where('id', '=', project.id)
+      .executeTakeFirstOrThrow();
   });
 }

@@ -9,13 +9,19 @@ import { recordAudit } from './audit.service';
 import { newId, nowIso } from './ids';
 
 /** The API view of a user row. */
-export function toSessionUser(row: Pick<UsersTable, 'id' | 'email' | 'name' | 'is_admin'>): SessionUser {
+export function toSessionUser(
+  row: Pick<UsersTable, 'id' | 'email' | 'name' | 'is_admin'>,
+): SessionUser {
   return { id: row.id, email: row.email, name: row.name, isAdmin: row.is_admin === 1 };
 }
 
 /** The signed-in user with their memberships (answer of sign-in and `/auth/me`). */
 export async function meFor(db: Db, userId: string): Promise<MeResponse> {
-  const user = await db.selectFrom('users').selectAll().where('id', '=', userId).executeTakeFirstOrThrow();
+  const user = await db
+    .selectFrom('users')
+    .selectAll()
+    .where('id', '=', userId)
+    .executeTakeFirstOrThrow();
   const memberships = await db
     .selectFrom('memberships')
     .innerJoin('projects', 'projects.id', 'memberships.project_id')
@@ -25,7 +31,10 @@ export async function meFor(db: Db, userId: string): Promise<MeResponse> {
     .execute();
   return {
     user: toSessionUser(user),
-    memberships: memberships.map((m) => ({ projectSlug: m.projectSlug, role: m.role as ProjectRole })),
+    memberships: memberships.map((m) => ({
+      projectSlug: m.projectSlug,
+      role: m.role as ProjectRole,
+    })),
   };
 }
 
@@ -36,7 +45,11 @@ export async function createUser(
   actorId: string | null,
 ): Promise<UsersTable> {
   const email = input.email.trim().toLowerCase();
-  const existing = await db.selectFrom('users').select('id').where('email', '=', email).executeTakeFirst();
+  const existing = await db
+    .selectFrom('users')
+    .select('id')
+    .where('email', '=', email)
+    .executeTakeFirst();
   if (existing) throw new ApiError('conflict', 'An account with this e-mail already exists.');
   const row: UsersTable = {
     id: newId(),
@@ -90,7 +103,11 @@ export async function updateUser(
   patch: { name?: string; isAdmin?: boolean; disabled?: boolean },
   actorId: string,
 ): Promise<void> {
-  const before = await db.selectFrom('users').selectAll().where('id', '=', userId).executeTakeFirst();
+  const before = await db
+    .selectFrom('users')
+    .selectAll()
+    .where('id', '=', userId)
+    .executeTakeFirst();
   if (!before) throw new ApiError('not_found', 'This user was not found.');
   if (userId === actorId && (patch.disabled === true || patch.isAdmin === false)) {
     throw new ApiError('conflict', 'You cannot disable yourself or remove your own admin rights.');
@@ -108,14 +125,23 @@ export async function updateUser(
       action: 'update',
       entity: 'user',
       entityId: userId,
-      before: { name: before.name, isAdmin: before.is_admin === 1, disabled: before.disabled === 1 },
+      before: {
+        name: before.name,
+        isAdmin: before.is_admin === 1,
+        disabled: before.disabled === 1,
+      },
       after: patch,
     });
   });
 }
 
 /** Sets a new password hash and ends the user's other sessions. */
-export async function setPassword(db: Db, userId: string, password: string, keepSid?: string): Promise<void> {
+export async function setPassword(
+  db: Db,
+  userId: string,
+  password: string,
+  keepSid?: string,
+): Promise<void> {
   const hash = await hashPassword(password);
   await db.transaction().execute(async (trx) => {
     await trx.updateTable('users').set({ password_hash: hash }).where('id', '=', userId).execute();

@@ -1,7 +1,13 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { PROJECT_ROLES } from '../../shared/roles';
 import { registeredRoutes, fillPath, type RegisteredRoute } from '../support/routes';
-import { createTestContext, seedTeam, signIn, TestClient, type TestContext } from '../support/test-app';
+import {
+  createTestContext,
+  seedTeam,
+  signIn,
+  TestClient,
+  type TestContext,
+} from '../support/test-app';
 
 // Every API route is found in the app itself; a route without a guard, or a guard that lets a
 // lower role through, makes this suite fail.
@@ -15,7 +21,14 @@ beforeAll(async () => {
   ctx = await createTestContext();
   team = await seedTeam(ctx.db, 'access-survey');
   routes = registeredRoutes(ctx.app);
-  for (const who of ['volunteer', 'reviewer', 'curator', 'ecologist', 'outsider', 'admin'] as const) {
+  for (const who of [
+    'volunteer',
+    'reviewer',
+    'curator',
+    'ecologist',
+    'outsider',
+    'admin',
+  ] as const) {
     clients[who] = await signIn(ctx.app, team.users[who].email);
   }
 });
@@ -25,7 +38,9 @@ describe('access control on every API route', () => {
   it('should find the routes in the app', () => {
     expect(routes.length).toBeGreaterThan(15);
     expect(routes).toContainEqual(expect.objectContaining({ method: 'GET', path: '/api/health' }));
-    expect(routes).toContainEqual(expect.objectContaining({ method: 'GET', path: '/api/projects/:slug/members' }));
+    expect(routes).toContainEqual(
+      expect.objectContaining({ method: 'GET', path: '/api/projects/:slug/members' }),
+    );
   });
 
   it('should notice a route registered without a guard', async () => {
@@ -34,7 +49,9 @@ describe('access control on every API route', () => {
     const api = express.Router();
     api.get('/projects/:slug/forgotten', (_req, res) => res.json({}));
     probe.use('/api', api);
-    expect(registeredRoutes(probe)).toEqual([{ method: 'GET', path: '/api/projects/:slug/forgotten', access: null }]);
+    expect(registeredRoutes(probe)).toEqual([
+      { method: 'GET', path: '/api/projects/:slug/forgotten', access: null },
+    ]);
   });
 
   it('should give every route exactly one declared guard', () => {
@@ -59,7 +76,8 @@ describe('access control on every API route', () => {
     for (const route of routes.filter((r) => r.access?.kind === 'admin')) {
       for (const who of ['ecologist', 'volunteer'] as const) {
         const res = await clients[who]!.send(route.method, fillPath(route.path, 'access-survey'));
-        if (res.status !== 403) failures.push(`${who} ${route.method} ${route.path} → ${res.status}`);
+        if (res.status !== 403)
+          failures.push(`${who} ${route.method} ${route.path} → ${res.status}`);
       }
     }
     expect(failures).toEqual([]);
@@ -75,7 +93,8 @@ describe('access control on every API route', () => {
       for (const who of [...below, 'outsider'] as const) {
         const res = await clients[who]!.send(route.method, fillPath(route.path, 'access-survey'));
         checked++;
-        if (res.status !== 403) failures.push(`${who} ${route.method} ${route.path} → ${res.status}`);
+        if (res.status !== 403)
+          failures.push(`${who} ${route.method} ${route.path} → ${res.status}`);
       }
     }
     expect(checked).toBeGreaterThan(10);
@@ -87,8 +106,16 @@ describe('access control on every API route', () => {
     for (const route of routes) {
       const access = route.access;
       if (access?.kind !== 'project') continue;
-      const res = await clients[access.role]!.send(route.method, fillPath(route.path, 'access-survey'));
-      if (res.status === 401 || (res.status === 403 && res.body?.error?.code === 'forbidden' && /role|member/.test(res.body.error.message))) {
+      const res = await clients[access.role]!.send(
+        route.method,
+        fillPath(route.path, 'access-survey'),
+      );
+      if (
+        res.status === 401 ||
+        (res.status === 403 &&
+          res.body?.error?.code === 'forbidden' &&
+          /role|member/.test(res.body.error.message))
+      ) {
         failures.push(`${access.role} ${route.method} ${route.path} → ${res.status}`);
       }
     }

@@ -1,5 +1,14 @@
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { createTestContext, linkIn, seedTeam, signIn, TestClient, TEST_PASSWORD, waitForMail, type TestContext } from '../support/test-app';
+import {
+  createTestContext,
+  linkIn,
+  seedTeam,
+  signIn,
+  TestClient,
+  TEST_PASSWORD,
+  waitForMail,
+  type TestContext,
+} from '../support/test-app';
 
 let ctx: TestContext;
 let team: Awaited<ReturnType<typeof seedTeam>>;
@@ -11,7 +20,9 @@ beforeEach(async () => {
 afterEach(async () => ctx.close());
 
 function sessionCookie(res: { headers: Record<string, unknown> }): string | undefined {
-  const cookies = ([] as string[]).concat((res.headers['set-cookie'] as string[] | undefined) ?? []);
+  const cookies = ([] as string[]).concat(
+    (res.headers['set-cookie'] as string[] | undefined) ?? [],
+  );
   return cookies.find((c) => c.startsWith('maculo.sid='));
 }
 
@@ -24,10 +35,18 @@ describe('sign-in', () => {
 
   it('should sign in and return the user with memberships and an httpOnly lax session cookie', async () => {
     const client = await new TestClient(ctx.app).init();
-    const res = await client.post('/api/auth/login', { email: 'Curator@Test-Survey.test', password: TEST_PASSWORD });
+    const res = await client.post('/api/auth/login', {
+      email: 'Curator@Test-Survey.test',
+      password: TEST_PASSWORD,
+    });
     expect(res.status).toBe(200);
     expect(res.body).toEqual({
-      user: { id: team.users.curator.id, email: 'curator@test-survey.test', name: 'The curator', isAdmin: false },
+      user: {
+        id: team.users.curator.id,
+        email: 'curator@test-survey.test',
+        name: 'The curator',
+        isAdmin: false,
+      },
       memberships: [{ projectSlug: 'test-survey', role: 'curator' }],
     });
     const cookie = sessionCookie(res);
@@ -45,7 +64,9 @@ describe('sign-in', () => {
       await seedTeam(secure.db);
       const request = (await import('supertest')).default;
       const first = await request(secure.app).get('/api/health').set('X-Forwarded-Proto', 'https');
-      const xsrf = ([] as string[]).concat(first.headers['set-cookie'] ?? []).find((c) => c.startsWith('XSRF-TOKEN='))!;
+      const xsrf = ([] as string[])
+        .concat(first.headers['set-cookie'] ?? [])
+        .find((c) => c.startsWith('XSRF-TOKEN='))!;
       expect(xsrf).toMatch(/Secure/i);
       const token = xsrf.split(';')[0]!.slice('XSRF-TOKEN='.length);
       const res = await request(secure.app)
@@ -63,8 +84,14 @@ describe('sign-in', () => {
 
   it('should give a new session id at every sign-in', async () => {
     const client = await new TestClient(ctx.app).init();
-    const first = await client.post('/api/auth/login', { email: team.users.reviewer.email, password: TEST_PASSWORD });
-    const second = await client.post('/api/auth/login', { email: team.users.reviewer.email, password: TEST_PASSWORD });
+    const first = await client.post('/api/auth/login', {
+      email: team.users.reviewer.email,
+      password: TEST_PASSWORD,
+    });
+    const second = await client.post('/api/auth/login', {
+      email: team.users.reviewer.email,
+      password: TEST_PASSWORD,
+    });
     const a = sessionCookie(first)?.split(';')[0];
     const b = sessionCookie(second)?.split(';')[0];
     expect(a).toBeTruthy();
@@ -76,8 +103,14 @@ describe('sign-in', () => {
 
   it('should answer a wrong password and an unknown e-mail with the same generic 401', async () => {
     const client = await new TestClient(ctx.app).init();
-    const wrong = await client.post('/api/auth/login', { email: team.users.reviewer.email, password: 'not-the-password' });
-    const unknown = await client.post('/api/auth/login', { email: 'nobody@test-survey.test', password: 'not-the-password' });
+    const wrong = await client.post('/api/auth/login', {
+      email: team.users.reviewer.email,
+      password: 'not-the-password',
+    });
+    const unknown = await client.post('/api/auth/login', {
+      email: 'nobody@test-survey.test',
+      password: 'not-the-password',
+    });
     expect(wrong.status).toBe(401);
     expect(unknown.status).toBe(401);
     expect(wrong.body).toEqual(unknown.body);
@@ -87,10 +120,16 @@ describe('sign-in', () => {
   it('should refuse sign-in after too many failures with 429', async () => {
     const client = await new TestClient(ctx.app).init();
     for (let i = 0; i < 3; i++) {
-      const res = await client.post('/api/auth/login', { email: team.users.reviewer.email, password: 'wrong-password' });
+      const res = await client.post('/api/auth/login', {
+        email: team.users.reviewer.email,
+        password: 'wrong-password',
+      });
       expect(res.status).toBe(401);
     }
-    const blocked = await client.post('/api/auth/login', { email: team.users.reviewer.email, password: TEST_PASSWORD });
+    const blocked = await client.post('/api/auth/login', {
+      email: team.users.reviewer.email,
+      password: TEST_PASSWORD,
+    });
     expect(blocked.status).toBe(429);
     expect(blocked.body.error.code).toBe('rate_limited');
   });
@@ -105,7 +144,9 @@ describe('sign-in', () => {
 
   it('should refuse state-changing requests without the matching CSRF header', async () => {
     const client = await new TestClient(ctx.app).init();
-    const none = await client.agent.post('/api/auth/login').send({ email: team.users.volunteer.email, password: TEST_PASSWORD });
+    const none = await client.agent
+      .post('/api/auth/login')
+      .send({ email: team.users.volunteer.email, password: TEST_PASSWORD });
     expect(none.status).toBe(403);
     expect(none.body.error.code).toBe('csrf_failed');
     const mismatched = await client.agent
@@ -119,10 +160,21 @@ describe('sign-in', () => {
     const client = await signIn(ctx.app, team.users.ecologist.email);
     const { createApp } = await import('../../server/app');
     const { pino } = await import('pino');
-    const restarted = createApp({ db: ctx.db, config: ctx.config, log: pino({ level: 'silent' }), mailer: ctx.mailer });
-    const cookie = (await ctx.db.selectFrom('sessions').select('sid').executeTakeFirstOrThrow()).sid;
+    const restarted = createApp({
+      db: ctx.db,
+      config: ctx.config,
+      log: pino({ level: 'silent' }),
+      mailer: ctx.mailer,
+    });
+    const cookie = (await ctx.db.selectFrom('sessions').select('sid').executeTakeFirstOrThrow())
+      .sid;
     expect(cookie).toBeTruthy();
-    const jarCookies = client.agent.jar.getCookies({ domain: '127.0.0.1', path: '/', secure: false, script: false });
+    const jarCookies = client.agent.jar.getCookies({
+      domain: '127.0.0.1',
+      path: '/',
+      secure: false,
+      script: false,
+    });
     const header = jarCookies.toValueString();
     const request = (await import('supertest')).default;
     const res = await request(restarted).get('/api/auth/me').set('Cookie', header);
@@ -132,11 +184,20 @@ describe('sign-in', () => {
 
   it('should change the password only with the current one', async () => {
     const client = await signIn(ctx.app, team.users.reviewer.email);
-    const wrong = await client.post('/api/auth/password', { currentPassword: 'nope-nope-nope', newPassword: 'a-new-long-password' });
+    const wrong = await client.post('/api/auth/password', {
+      currentPassword: 'nope-nope-nope',
+      newPassword: 'a-new-long-password',
+    });
     expect(wrong.status).toBe(401);
-    const short = await client.post('/api/auth/password', { currentPassword: TEST_PASSWORD, newPassword: 'short' });
+    const short = await client.post('/api/auth/password', {
+      currentPassword: TEST_PASSWORD,
+      newPassword: 'short',
+    });
     expect(short.status).toBe(400);
-    const ok = await client.post('/api/auth/password', { currentPassword: TEST_PASSWORD, newPassword: 'a-new-long-password' });
+    const ok = await client.post('/api/auth/password', {
+      currentPassword: TEST_PASSWORD,
+      newPassword: 'a-new-long-password',
+    });
     expect(ok.status).toBe(204);
     expect((await client.get('/api/auth/me')).status).toBe(200);
     await signIn(ctx.app, team.users.reviewer.email, 'a-new-long-password');
@@ -147,8 +208,12 @@ describe('sign-in', () => {
 describe('password reset', () => {
   it('should answer the same for known and unknown e-mails and mail only the known one', async () => {
     const client = await new TestClient(ctx.app).init();
-    const known = await client.post('/api/auth/password-reset', { email: team.users.curator.email });
-    const unknown = await client.post('/api/auth/password-reset', { email: 'ghost@test-survey.test' });
+    const known = await client.post('/api/auth/password-reset', {
+      email: team.users.curator.email,
+    });
+    const unknown = await client.post('/api/auth/password-reset', {
+      email: 'ghost@test-survey.test',
+    });
     expect(known.status).toBe(202);
     expect(unknown.status).toBe(202);
     expect(known.body).toEqual(unknown.body);
@@ -164,22 +229,39 @@ describe('password reset', () => {
     await client.post('/api/auth/password-reset', { email: team.users.curator.email });
     const link = linkIn((await waitForMail(ctx.db, team.users.curator.email)).text);
     const token = link.split('/reset-password/')[1]!;
-    const stored = await ctx.db.selectFrom('password_resets').select('token_hash').executeTakeFirstOrThrow();
+    const stored = await ctx.db
+      .selectFrom('password_resets')
+      .select('token_hash')
+      .executeTakeFirstOrThrow();
     expect(stored.token_hash).not.toContain(token);
-    const ok = await client.post('/api/auth/password-reset/confirm', { token, newPassword: 'brand-new-password' });
+    const ok = await client.post('/api/auth/password-reset/confirm', {
+      token,
+      newPassword: 'brand-new-password',
+    });
     expect(ok.status).toBe(204);
     expect((await old.get('/api/auth/me')).status).toBe(401);
     await signIn(ctx.app, team.users.curator.email, 'brand-new-password');
-    const again = await client.post('/api/auth/password-reset/confirm', { token, newPassword: 'another-new-password' });
+    const again = await client.post('/api/auth/password-reset/confirm', {
+      token,
+      newPassword: 'another-new-password',
+    });
     expect(again.status).toBe(400);
   });
 
   it('should refuse an expired reset token', async () => {
     const client = await new TestClient(ctx.app).init();
     await client.post('/api/auth/password-reset', { email: team.users.curator.email });
-    const token = linkIn((await waitForMail(ctx.db, team.users.curator.email)).text).split('/reset-password/')[1]!;
-    await ctx.db.updateTable('password_resets').set({ expires_at: '2000-01-01T00:00:00Z' }).execute();
-    const res = await client.post('/api/auth/password-reset/confirm', { token, newPassword: 'brand-new-password' });
+    const token = linkIn((await waitForMail(ctx.db, team.users.curator.email)).text).split(
+      '/reset-password/',
+    )[1]!;
+    await ctx.db
+      .updateTable('password_resets')
+      .set({ expires_at: '2000-01-01T00:00:00Z' })
+      .execute();
+    const res = await client.post('/api/auth/password-reset/confirm', {
+      token,
+      newPassword: 'brand-new-password',
+    });
     expect(res.status).toBe(400);
     expect(res.body.error.message).toMatch(/not valid any more/);
   });

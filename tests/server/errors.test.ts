@@ -20,21 +20,34 @@ describe('bad input gets the one error shape', () => {
       .set('Content-Type', 'application/json')
       .send('{"email": "x@y.org", "name": ');
     expect(res.status).toBe(400);
-    expect(res.body).toEqual({ error: { code: 'malformed_json', message: 'The request body is not valid JSON.' } });
+    expect(res.body).toEqual({
+      error: { code: 'malformed_json', message: 'The request body is not valid JSON.' },
+    });
   });
 
   it('should answer a body over the size limit with 400 and keep nothing', async () => {
     const admin = await signIn(ctx.app, team.users.admin.email);
-    const res = await admin.post('/api/admin/users', { email: 'big@example.org', name: 'x'.repeat(2 * 1024 * 1024) });
+    const res = await admin.post('/api/admin/users', {
+      email: 'big@example.org',
+      name: 'x'.repeat(2 * 1024 * 1024),
+    });
     expect(res.status).toBe(400);
     expect(res.body.error.code).toBe('payload_too_large');
-    const stored = await ctx.db.selectFrom('users').select('id').where('email', '=', 'big@example.org').execute();
+    const stored = await ctx.db
+      .selectFrom('users')
+      .select('id')
+      .where('email', '=', 'big@example.org')
+      .execute();
     expect(stored).toHaveLength(0);
   });
 
   it('should name unknown and mistyped fields', async () => {
     const admin = await signIn(ctx.app, team.users.admin.email);
-    const res = await admin.post('/api/admin/users', { email: 'x@example.org', name: 42, shoeSize: 44 });
+    const res = await admin.post('/api/admin/users', {
+      email: 'x@example.org',
+      name: 42,
+      shoeSize: 44,
+    });
     expect(res.status).toBe(400);
     expect(res.body.error.code).toBe('validation_failed');
     const details = res.body.error.details.request as { path: string; message: string }[];
@@ -52,7 +65,9 @@ describe('bad input gets the one error shape', () => {
     expect(res.status).toBe(400);
     expect(res.body.error.message).toMatch(/id is not valid/);
     const ecologist = await signIn(ctx.app, team.users.ecologist.email);
-    expect((await ecologist.put('/api/projects/test-survey/members/ZZZ', { role: 'reviewer' })).status).toBe(400);
+    expect(
+      (await ecologist.put('/api/projects/test-survey/members/ZZZ', { role: 'reviewer' })).status,
+    ).toBe(400);
     expect((await ecologist.get('/api/projects/Bad_Slug!')).status).toBe(400);
   });
 
@@ -69,7 +84,9 @@ describe('bad input gets the one error shape', () => {
     await sql`drop table mail_messages`.execute(ctx.db);
     const res = await admin.get('/api/admin/outbox');
     expect(res.status).toBe(500);
-    expect(res.body).toEqual({ error: { code: 'internal', message: 'Something went wrong on the server. Please try again.' } });
+    expect(res.body).toEqual({
+      error: { code: 'internal', message: 'Something went wrong on the server. Please try again.' },
+    });
     expect(JSON.stringify(res.body)).not.toMatch(/mail_messages|sqlite|at /i);
   });
 

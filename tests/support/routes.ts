@@ -22,10 +22,15 @@ function join(prefix: string, path: unknown): string {
 function walk(stack: LayerLike[], prefix: string, out: RegisteredRoute[]): void {
   for (const layer of stack) {
     if (layer.route) {
-      const guard = layer.route.stack.map((l) => l.handle?.access).find((a) => a !== undefined) ?? null;
+      const guard =
+        layer.route.stack.map((l) => l.handle?.access).find((a) => a !== undefined) ?? null;
       for (const method of Object.keys(layer.route.methods)) {
         if (method === '_all') continue;
-        out.push({ method: method.toUpperCase(), path: join(prefix, layer.route.path), access: guard });
+        out.push({
+          method: method.toUpperCase(),
+          path: join(prefix, layer.route.path),
+          access: guard,
+        });
       }
     } else if (layer.handle?.stack) {
       walk(layer.handle.stack, join(prefix, layer.rawPath), out);

@@ -110,16 +110,25 @@ export class TestClient {
 }
 
 /** Signs in through the real login route and returns the client. */
-export async function signIn(app: Express, email: string, password = TEST_PASSWORD): Promise<TestClient> {
+export async function signIn(
+  app: Express,
+  email: string,
+  password = TEST_PASSWORD,
+): Promise<TestClient> {
   const client = await new TestClient(app).init();
   const res = await client.post('/api/auth/login', { email, password });
-  if (res.status !== 200) throw new Error(`sign-in of ${email} failed: ${res.status} ${JSON.stringify(res.body)}`);
+  if (res.status !== 200)
+    throw new Error(`sign-in of ${email} failed: ${res.status} ${JSON.stringify(res.body)}`);
   return client;
 }
 
 /** A project with one member per role, an admin and a non-member; all with TEST_PASSWORD. */
 export async function seedTeam(db: Db, slug = 'test-survey') {
-  const admin = await createUser(db, { email: `admin@${slug}.test`, name: 'Admin', password: TEST_PASSWORD, isAdmin: true }, null);
+  const admin = await createUser(
+    db,
+    { email: `admin@${slug}.test`, name: 'Admin', password: TEST_PASSWORD, isAdmin: true },
+    null,
+  );
   const project = await createProject(
     db,
     {
@@ -142,7 +151,11 @@ export async function seedTeam(db: Db, slug = 'test-survey') {
     admin: { id: admin.id, email: admin.email },
   } as Record<ProjectRole | 'outsider' | 'admin', { id: string; email: string }>;
   for (const role of ['volunteer', 'reviewer', 'curator', 'ecologist', 'outsider'] as const) {
-    const u = await createUser(db, { email: `${role}@${slug}.test`, name: `The ${role}`, password: TEST_PASSWORD }, admin.id);
+    const u = await createUser(
+      db,
+      { email: `${role}@${slug}.test`, name: `The ${role}`, password: TEST_PASSWORD },
+      admin.id,
+    );
     if (role !== 'outsider') await setMemberRole(db, project.id, u.id, role, admin.id);
     users[role] = { id: u.id, email: u.email };
   }

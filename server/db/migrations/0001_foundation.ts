@@ -48,7 +48,9 @@ export async function up(db: Kysely<unknown>): Promise<void> {
 
   await db.schema
     .createTable('memberships')
-    .addColumn('project_id', 'text', (c) => c.notNull().references('projects.id').onDelete('cascade'))
+    .addColumn('project_id', 'text', (c) =>
+      c.notNull().references('projects.id').onDelete('cascade'),
+    )
     .addColumn('user_id', 'text', (c) => c.notNull().references('users.id').onDelete('cascade'))
     .addColumn('role', 'text', (c) => c.notNull())
     .addColumn('created_at', 'text', (c) => c.notNull())
@@ -59,7 +61,9 @@ export async function up(db: Kysely<unknown>): Promise<void> {
   await db.schema
     .createTable('invitations')
     .addColumn('id', 'text', (c) => c.primaryKey())
-    .addColumn('project_id', 'text', (c) => c.notNull().references('projects.id').onDelete('cascade'))
+    .addColumn('project_id', 'text', (c) =>
+      c.notNull().references('projects.id').onDelete('cascade'),
+    )
     .addColumn('email', 'text', (c) => c.notNull())
     .addColumn('role', 'text', (c) => c.notNull())
     .addColumn('token_hash', 'text', (c) => c.notNull().unique())
@@ -97,7 +101,11 @@ export async function up(db: Kysely<unknown>): Promise<void> {
     .on('audit_log')
     .columns(['entity', 'entity_id', 'at'])
     .execute();
-  await db.schema.createIndex('audit_log_project').on('audit_log').columns(['project_id', 'at']).execute();
+  await db.schema
+    .createIndex('audit_log_project')
+    .on('audit_log')
+    .columns(['project_id', 'at'])
+    .execute();
 
   await db.schema
     .createTable('mail_messages')
@@ -110,7 +118,9 @@ export async function up(db: Kysely<unknown>): Promise<void> {
     .addColumn('html', 'text')
     .addColumn('received_at', 'text', (c) => c.notNull())
     .execute();
-  await sql`create index mail_messages_received on mail_messages (received_at desc, id desc)`.execute(db);
+  await sql`create index mail_messages_received on mail_messages (received_at desc, id desc)`.execute(
+    db,
+  );
 }
 
 /** Drops everything this migration made. */
