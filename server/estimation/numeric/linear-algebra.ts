@@ -3,7 +3,10 @@
 /** Inverse of a square matrix by Gauss–Jordan elimination with partial pivoting; null if singular. */
 export function invertMatrix(matrix: readonly (readonly number[])[]): number[][] | null {
   const n = matrix.length;
-  const a = matrix.map((row, i) => [...row, ...Array.from({ length: n }, (_, j) => (i === j ? 1 : 0))]);
+  const a = matrix.map((row, i) => [
+    ...row,
+    ...Array.from({ length: n }, (_, j) => (i === j ? 1 : 0)),
+  ]);
   for (let col = 0; col < n; col++) {
     let pivot = col;
     for (let r = col + 1; r < n; r++) if (Math.abs(a[r][col]) > Math.abs(a[pivot][col])) pivot = r;
@@ -25,6 +28,7 @@ export function invertMatrix(matrix: readonly (readonly number[])[]): number[][]
 /** Quadratic form vᵀ M v. */
 export function quadraticForm(m: readonly (readonly number[])[], v: readonly number[]): number {
   let sum = 0;
-  for (let i = 0; i < v.length; i++) for (let j = 0; j < v.length; j++) sum += v[i] * m[i][j] * v[j];
+  for (let i = 0; i < v.length; i++)
+    for (let j = 0; j < v.length; j++) sum += v[i] * m[i][j] * v[j];
   return sum;
 }

@@ -25,7 +25,10 @@ export interface BfgsOptions {
 }
 
 /** Central-difference gradient with a step scaled to each coordinate. */
-export function numericalGradient(f: (x: readonly number[]) => number, x: readonly number[]): number[] {
+export function numericalGradient(
+  f: (x: readonly number[]) => number,
+  x: readonly number[],
+): number[] {
   const g = new Array<number>(x.length);
   const xp = [...x];
   for (let i = 0; i < x.length; i++) {
@@ -107,7 +110,11 @@ function secondDifference(
 }
 
 /** Minimise an objective by BFGS with a backtracking (Armijo) line search. */
-export function bfgs(objective: Objective, start: readonly number[], options: BfgsOptions = {}): MinimiseResult {
+export function bfgs(
+  objective: Objective,
+  start: readonly number[],
+  options: BfgsOptions = {},
+): MinimiseResult {
   const n = start.length;
   const maxIterations = options.maxIterations ?? 200;
   const gtol = options.gradientTolerance ?? 1e-6;
@@ -187,7 +194,9 @@ function bfgsUpdate(H: number[][], s: number[], y: number[], sy: number): number
 }
 
 function identity(n: number): number[][] {
-  return Array.from({ length: n }, (_, i) => Array.from({ length: n }, (_, j) => (i === j ? 1 : 0)));
+  return Array.from({ length: n }, (_, i) =>
+    Array.from({ length: n }, (_, j) => (i === j ? 1 : 0)),
+  );
 }
 
 function matVec(m: number[][], v: number[]): number[] {

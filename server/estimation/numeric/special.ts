@@ -38,7 +38,8 @@ export function digamma(x: number): number {
   }
   const f = 1 / (y * y);
   const series =
-    f * (-1 / 12 + f * (1 / 120 + f * (-1 / 252 + f * (1 / 240 + f * (-1 / 132 + f * (691 / 32760))))));
+    f *
+    (-1 / 12 + f * (1 / 120 + f * (-1 / 252 + f * (1 / 240 + f * (-1 / 132 + f * (691 / 32760))))));
   return result + Math.log(y) - 0.5 / y + series;
 }
 
