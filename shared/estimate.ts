@@ -355,4 +355,6 @@ export interface SecrResult {
   bufferCheck: { buffer: number; D: number; relativeChange: number } | null;
   warnings: string[];
   mask: { spacing: number; buffer: number; points: number };
+  /** Assumptions to show beside the result. */
+  assumptions: string[];
 }

@@ -14,6 +14,8 @@ export interface MinimiseResult {
   iterations: number;
   evaluations: number;
   converged: boolean;
+  /** Final BFGS inverse-Hessian estimate. */
+  inverseHessian: number[][];
 }
 
 /** Options for {@link bfgs}. */
@@ -22,6 +24,8 @@ export interface BfgsOptions {
   gradientTolerance?: number;
   /** Largest step (in parameter units) a line search may try; guards against overflow. */
   maxStep?: number;
+  /** Starting inverse-Hessian estimate (identity when absent), e.g. from an earlier fit. */
+  initialInverseHessian?: number[][];
 }
 
 /** Central-difference gradient with a step scaled to each coordinate. */
@@ -130,7 +134,7 @@ export function bfgs(
   let x = [...start];
   let fx = f(x);
   let g = grad(x);
-  let Hinv = identity(n);
+  let Hinv = options.initialInverseHessian?.map((row) => [...row]) ?? identity(n);
   let iterations = 0;
   let converged = false;
   for (; iterations < maxIterations; iterations++) {
@@ -175,7 +179,7 @@ export function bfgs(
       break;
     }
   }
-  return { x, value: fx, gradient: g, iterations, evaluations, converged };
+  return { x, value: fx, gradient: g, iterations, evaluations, converged, inverseHessian: Hinv };
 }
 
 function bfgsUpdate(H: number[][], s: number[], y: number[], sy: number): number[][] {
