@@ -76,8 +76,8 @@ export const closedRequestSchema = z
 const trapSchema = z
   .object({
     id: z.string({ error: 'Every trap needs an id' }).min(1, { error: 'Every trap needs an id' }),
-    x: z.unknown(),
-    y: z.unknown(),
+    x: z.unknown().optional(),
+    y: z.unknown().optional(),
   })
   .transform((t, ctx) => {
     const bad = (['x', 'y'] as const).filter(
