@@ -6,33 +6,49 @@ import type { Interval, ModelEstimate } from '../../shared/estimate';
 import { invertMatrix } from './numeric/linear-algebra';
 import { bfgs, numericalHessian } from './numeric/optimise';
 import { brentRoot } from './numeric/roots';
-import { lgamma } from './numeric/special';
+import { digamma, lgamma } from './numeric/special';
 import { aicc } from './full-likelihood';
 import type { CaptureSummary } from './summary';
 
 const PROFILE_CUTOFF = 1.920729410347062;
 const sigmoid = (x: number): number => 1 / (1 + Math.exp(-x));
 
-/** Log-probability of one specific history with k captures under the mixture (θ on the logit scale). */
-function logQ(k: number, t: number, theta: readonly number[]): number {
+/** log Q(k) for a history with k captures and its gradient in θ = (logit p1, logit p2, logit π). */
+function logQ(k: number, t: number, theta: readonly number[]): { value: number; grad: number[] } {
   const [l1, l2, lw] = theta;
   const term = (l: number): number =>
     -k * Math.log1p(Math.exp(-l)) - (t - k) * Math.log1p(Math.exp(l));
-  const a = Math.log(sigmoid(lw)) + term(l1);
-  const b = Math.log(sigmoid(-lw)) + term(l2);
+  const a = -Math.log1p(Math.exp(-lw)) + term(l1);
+  const b = -Math.log1p(Math.exp(lw)) + term(l2);
   const m = Math.max(a, b);
-  return m + Math.log(Math.exp(a - m) + Math.exp(b - m));
+  const value = m + Math.log(Math.exp(a - m) + Math.exp(b - m));
+  const r1 = Math.exp(a - value);
+  const r2 = 1 - r1;
+  const w = sigmoid(lw);
+  return {
+    value,
+    grad: [r1 * (k - t * sigmoid(l1)), r2 * (k - t * sigmoid(l2)), (1 - w) * r1 - w * r2],
+  };
 }
 
+/** Log-likelihood at N and θ, with the gradient in θ and the derivative in N. */
 function captureLogLik(
   N: number,
   s: CaptureSummary,
   theta: readonly number[],
   logMultinomial: number,
-): number {
-  let ll = lgamma(N + 1) - lgamma(N - s.S + 1) - logMultinomial + (N - s.S) * logQ(0, s.t, theta);
-  for (let k = 1; k < s.f.length; k++) if (s.f[k] > 0) ll += s.f[k] * logQ(k, s.t, theta);
-  return ll;
+): { value: number; grad: number[]; dN: number } {
+  const q0 = logQ(0, s.t, theta);
+  const unseen = N - s.S;
+  let value = lgamma(N + 1) - lgamma(unseen + 1) - logMultinomial + unseen * q0.value;
+  const grad = q0.grad.map((g) => unseen * g);
+  for (let k = 1; k < s.f.length; k++) {
+    if (s.f[k] === 0) continue;
+    const q = logQ(k, s.t, theta);
+    value += s.f[k] * q.value;
+    for (let i = 0; i < 3; i++) grad[i] += s.f[k] * q.grad[i];
+  }
+  return { value, grad, dN: digamma(N + 1) - digamma(unseen + 1) + q0.value };
 }
 
 /** Maximise over the mixture parameters at fixed N (several starts guard against the label switch). */
@@ -51,9 +67,12 @@ function profileAt(
       ];
   let best = { ll: -Infinity, theta: starts[0] };
   for (const s0 of starts) {
-    const r = bfgs({ value: (th) => -captureLogLik(N, s, th, logMultinomial) }, s0, {
-      maxIterations: 150,
-    });
+    const objective = {
+      value: (th: readonly number[]) => -captureLogLik(N, s, th, logMultinomial).value,
+      gradient: (th: readonly number[]) =>
+        captureLogLik(N, s, th, logMultinomial).grad.map((g) => -g),
+    };
+    const r = bfgs(objective, s0, { maxIterations: 150 });
     if (-r.value > best.ll) best = { ll: -r.value, theta: r.x };
   }
   return best;
@@ -62,15 +81,22 @@ function profileAt(
 /** Fit the 2-class mixture; the interval comes from the profile likelihood and may be unbounded. */
 export function fitMixtureMh(s: CaptureSummary, logMultinomial: number): ModelEstimate {
   const S = s.S;
-  const full = (x: readonly number[]): number =>
-    -captureLogLik(S + Math.exp(x[0]), s, x.slice(1), logMultinomial);
+  // x = (log(N − S), θ): N stays above S without a constraint.
+  const full = {
+    value: (x: readonly number[]) =>
+      -captureLogLik(S + Math.exp(x[0]), s, x.slice(1), logMultinomial).value,
+    gradient: (x: readonly number[]) => {
+      const r = captureLogLik(S + Math.exp(x[0]), s, x.slice(1), logMultinomial);
+      return [-r.dN * Math.exp(x[0]), ...r.grad.map((g) => -g)];
+    },
+  };
   const starts = [Math.log(Math.max(1, 0.2 * S)), Math.log(Math.max(1, S))].flatMap((l) => [
     [l, -2, 0.5, 0],
     [l, -1, 1.5, 1],
   ]);
-  let best = bfgs({ value: full }, starts[0]);
+  let best = bfgs(full, starts[0]);
   for (const x0 of starts.slice(1)) {
-    const r = bfgs({ value: full }, x0);
+    const r = bfgs(full, x0);
     if (r.value < best.value) best = r;
   }
   const warnings: string[] = [];
@@ -91,7 +117,7 @@ export function fitMixtureMh(s: CaptureSummary, logMultinomial: number): ModelEs
   }
   const [p1, p2, w] = [sigmoid(theta[0]), sigmoid(theta[1]), sigmoid(theta[2])];
   // Delta method on x = log(N − S): var N = (N − S)² var x.
-  const cov = invertMatrix(numericalHessian({ value: full }, best.x));
+  const cov = invertMatrix(numericalHessian(full, best.x));
   const varX = cov ? cov[0][0] : NaN;
   const se = varX > 0 ? (N - S) * Math.sqrt(varX) : null;
   if (se === null)

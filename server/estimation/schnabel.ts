@@ -7,7 +7,7 @@ import type { CaptureSummary } from './summary';
 
 /** Shown whenever a census estimate falls below the number of animals actually caught. */
 export function belowSWarning(N: number, S: number): string {
-  return `The estimate (${N.toFixed(1)}) is below the ${S} animals actually caught, so it cannot be right; this often happens when animals become trap-happy. Use a model that allows behavioural response (Mb).`;
+  return `The estimate (${N.toFixed(1)}) is below the ${S} animals actually caught, so it cannot be right; this happens when animals become trap-happy or differ in catchability. Use a model that allows for behaviour (Mb) or heterogeneity (Mh).`;
 }
 
 /** Schnabel N = Σ C_t M_t / Σ R_t, with exact Poisson limits on Σ R_t (≤ 50) or normal on 1/N. */

@@ -81,7 +81,7 @@ describe('closed-population estimators under simulation', () => {
   });
 
   it('should recover N with Mb under a trap-happy response while M0 is biased low', () => {
-    const r = study({ N: 100, t: 6, p: 0.2, c: 0.5 }, { m0, mb }, 13);
+    const r = study({ N: 100, t: 8, p: 0.25, c: 0.6 }, { m0, mb }, 13);
     expect(Math.abs(r.mb.bias)).toBeLessThan(0.05);
     expect(r.m0.bias).toBeLessThan(-0.08);
   });

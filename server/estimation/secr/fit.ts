@@ -70,7 +70,8 @@ function multiStart(
 ): Optimum {
   const starts = startValues(input.detector, sigma0);
   const coarseSpacing = 2 * mask.spacing;
-  if (coarseSpacing > sigma0 / 2) return optimise(lik, starts);
+  // Cells up to about σ across still place the optimum well enough to choose among starts.
+  if (coarseSpacing > 0.8 * sigma0) return optimise(lik, starts);
   const coarse = new SecrLikelihood(
     data,
     buildMask(input.traps, coarseSpacing, mask.buffer),
