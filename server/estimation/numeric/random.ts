@@ -67,7 +67,7 @@ export class SeededRandom {
     return this.uniform() < p ? 1 : 0;
   }
 
-  /** Binomial(n, p) draw: inversion from the mode-free recursion, exact for any n. */
+  /** Binomial(n, p) draw: inversion when n·p is small, a sum of Bernoulli draws otherwise (both exact). */
   binomial(n: number, p: number): number {
     if (p <= 0 || n <= 0) return 0;
     if (p >= 1) return n;
@@ -88,7 +88,7 @@ export class SeededRandom {
   }
 
   private binomialByPoissonSplit(n: number, p: number): number {
-    // Sum of Bernoulli draws is exact; n·p > 30 only occurs for large test populations.
+    // Exact but O(n); large n·p only occurs in big synthetic populations.
     let k = 0;
     for (let i = 0; i < n; i++) if (this.uniform() < p) k++;
     return k;
