@@ -164,7 +164,11 @@ function summariseFit(
   const sigma = Math.exp(best.theta[1]);
   const scale =
     input.detector === 'proximity' ? 1 / (1 + Math.exp(-best.theta[0])) : Math.exp(best.theta[0]);
-  const all = [...warnings, ...fitWarnings(input, best, sigma, cov === null)];
+  const all = [
+    ...warnings,
+    ...fitWarnings(input, best, sigma, cov === null),
+    ...maskWarnings(mask, sigma),
+  ];
   return {
     detector: input.detector,
     D,
@@ -203,6 +207,17 @@ function fitWarnings(input: SecrInput, best: Optimum, sigma: number, singular: b
   if (sigma > extent / 2) {
     out.push(
       `The movement scale σ̂ (${sigma.toFixed(0)} m) is more than half the extent of the trap array (${extent.toFixed(0)} m): the array is too small for these animals, and density is poorly determined.`,
+    );
+  }
+  return out;
+}
+
+/** Mask cells coarser than σ̂/2 depart from common practice (the buffer is checked by refitting). */
+function maskWarnings(mask: HabitatMask, sigma: number): string[] {
+  const out: string[] = [];
+  if (mask.spacing > sigma / 2) {
+    out.push(
+      `The mask spacing (${mask.spacing.toFixed(0)} m) is coarser than half the movement scale σ̂ (${(sigma / 2).toFixed(0)} m); a finer mask would integrate more accurately.`,
     );
   }
   return out;
