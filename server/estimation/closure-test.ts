@@ -1,8 +1,9 @@
 /**
- * Otis et al. (1978) closure test. Under closure, an animal caught r ≥ 2 times has its capture
+ * Closure test after Otis et al. (1978). Under closure, an animal caught r ≥ 2 times has its capture
  * occasions spread at random over the t occasions, so the span between its first and last capture
  * has a known mean and variance; births, deaths or movement shorten spans. z sums the standardised
- * spans; P = Φ(z) is one-sided (Simcharoen et al. 2007 report z = 0.39, P = 0.65).
+ * spans and P = Φ(z) is one-sided (Simcharoen et al. 2007 report z = 0.39, P = 0.65). We built the
+ * statistic from this logic; it has not been checked term by term against the monograph.
  */
 import type { ClosureTest } from '../../shared/estimate';
 import { normalCdf } from './numeric/distributions';
