@@ -134,6 +134,14 @@ describe('guards and edge cases', () => {
     expect(r.warnings.some((w) => /1\/√min\(n, r\) ≈/.test(w))).toBe(true);
   });
 
+  it('should accept histories as number rows and give the same result as strings', () => {
+    const strings = historiesFromOccasionSummary(DEER_MICE.u, DEER_MICE.m);
+    const rows = strings.map((h) => [...h].map(Number));
+    const a = estimateClosed(strings, { mixture: false });
+    const b = estimateClosed(rows, { mixture: false });
+    expect(b.models.map((m) => m.N)).toEqual(a.models.map((m) => m.N));
+  });
+
   it('should reject ragged histories and symbols other than 0/1', () => {
     expect(() => estimateClosed(['101', '11'])).toThrow(/occasions/);
     expect(() => estimateClosed(['101', '1x1'])).toThrow(/other than 0 and 1/);

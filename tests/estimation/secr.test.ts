@@ -196,3 +196,47 @@ describe('SECR simulation, 6×6 grid at 2σ spacing (synthetic, 30 replicates, f
     expect(narrow).toBeGreaterThan(wide * 1.02);
   });
 });
+
+describe('fitSecr fit guards (synthetic)', () => {
+  it('should warn when widening a narrow buffer moves the density by more than 1 %', () => {
+    const sigma = 50;
+    const traps = trapGrid(6, 6, 2 * sigma);
+    const sim = simulateSecr(
+      {
+        traps,
+        occasions: 5,
+        detector: 'proximity',
+        density: 1.2,
+        g0OrLambda0: 0.2,
+        sigma,
+        buffer: 4 * sigma,
+      },
+      new SeededRandom(31),
+    );
+    const narrow = fitSecr({ ...sim, mask: { spacing: sigma / 2, buffer: 1.5 * sigma } });
+    expect(Math.abs(narrow.bufferCheck?.relativeChange ?? 0)).toBeGreaterThan(0.01);
+    expect(narrow.warnings.join(' ')).toMatch(/buffer is too narrow/);
+    const wide = fitSecr({ ...sim, mask: { spacing: sigma / 2, buffer: 5 * sigma } });
+    expect(Math.abs(wide.bufferCheck?.relativeChange ?? 1)).toBeLessThan(0.01);
+    expect(wide.warnings.join(' ')).not.toMatch(/buffer is too narrow/);
+  });
+
+  it('should warn when σ̂ exceeds half the extent of a small array', () => {
+    const traps = trapGrid(3, 3, 20);
+    const sim = simulateSecr(
+      {
+        traps,
+        occasions: 10,
+        detector: 'proximity',
+        density: 0.3,
+        g0OrLambda0: 0.3,
+        sigma: 120,
+        buffer: 500,
+      },
+      new SeededRandom(8),
+    );
+    const r = fitSecr({ ...sim, mask: { spacing: 30, buffer: 600 } });
+    expect(r.sigma).toBeGreaterThan(28);
+    expect(r.warnings.join(' ')).toMatch(/more than half the extent of the trap array/);
+  });
+});
