@@ -28,6 +28,9 @@ export const DEMO_PROJECT = {
   sensitivity: 'high' as const,
   sensitivityReviewDate: '2027-06-30',
   codePrefix: 'KHL',
+  boundary: null,
+  tileUrl: null,
+  gpsToleranceM: 250,
 };
 
 /** The season: 60 days of dry-season sampling (dates are local to the project's time zone). */

@@ -28,6 +28,27 @@ export const timeZoneSchema = z.string().min(1).max(64).refine(isValidTimeZone, 
   message: 'This is not a known IANA time zone (e.g. Africa/Nairobi).',
 });
 
+const position = z.tuple([z.number().min(-180).max(180), z.number().min(-90).max(90)]);
+const ring = z.array(position).min(4, { message: 'A boundary ring needs at least 4 positions.' });
+
+/** The study-area boundary as a GeoJSON Polygon or MultiPolygon (WGS84 longitude, latitude). */
+export const boundarySchema = z.union(
+  [
+    z.object({ type: z.literal('Polygon'), coordinates: z.array(ring).min(1) }),
+    z.object({ type: z.literal('MultiPolygon'), coordinates: z.array(z.array(ring).min(1)).min(1) }),
+  ],
+  { message: 'The boundary must be a GeoJSON Polygon or MultiPolygon in longitude, latitude.' },
+);
+export type Boundary = z.infer<typeof boundarySchema>;
+
+/** Map tiles for online installs: a URL template with {z}, {x} and {y}. */
+export const tileUrlSchema = z
+  .string()
+  .max(500)
+  .regex(/^https:\/\/[^\s]+\{z\}[^\s]*\{x\}[^\s]*\{y\}[^\s]*$/, {
+    message: 'A tile URL starts with https:// and contains {z}, {x} and {y}.',
+  });
+
 const settingsShape = {
   name: z
     .string()
@@ -54,6 +75,9 @@ const settingsShape = {
   codePrefix: z
     .string()
     .regex(/^[A-Z]{1,6}$/, { message: 'A code prefix is 1–6 capital letters, e.g. KHL.' }),
+  boundary: boundarySchema.nullable(),
+  tileUrl: tileUrlSchema.nullable(),
+  gpsToleranceM: z.number().int().min(10).max(100_000),
 };
 
 /** Body of `POST /api/admin/projects`. */
@@ -68,6 +92,9 @@ export const createProjectBodySchema = z
     reviewersPerSighting: settingsShape.reviewersPerSighting.default(2),
     sensitivity: settingsShape.sensitivity.default('medium'),
     sensitivityReviewDate: settingsShape.sensitivityReviewDate.default(null),
+    boundary: settingsShape.boundary.default(null),
+    tileUrl: settingsShape.tileUrl.default(null),
+    gpsToleranceM: settingsShape.gpsToleranceM.default(250),
   })
   .strict();
 export type CreateProjectBody = z.infer<typeof createProjectBodySchema>;
@@ -98,6 +125,9 @@ export interface ProjectDetail {
   publicPrecision: number | null;
   sensitivityReviewDate: string | null;
   codePrefix: string;
+  boundary: Boundary | null;
+  tileUrl: string | null;
+  gpsToleranceM: number;
   createdAt: string;
   role: ProjectRole | null;
 }

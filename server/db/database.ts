@@ -3,6 +3,15 @@ import { mkdirSync } from 'node:fs';
 import { dirname } from 'node:path';
 import { Kysely, SqliteDialect } from 'kysely';
 import type { AuditLogTable, MailMessagesTable } from './schema/audit.table';
+import type {
+  CardUploadsTable,
+  DeploymentsTable,
+  EventsTable,
+  JobsTable,
+  PhotosTable,
+  StationsTable,
+  UploadFilesTable,
+} from './schema/ingest.table';
 import type { MembershipsTable, ProjectsTable } from './schema/projects.table';
 import type {
   InvitationsTable,
@@ -21,6 +30,13 @@ export interface Database {
   memberships: MembershipsTable;
   audit_log: AuditLogTable;
   mail_messages: MailMessagesTable;
+  stations: StationsTable;
+  deployments: DeploymentsTable;
+  card_uploads: CardUploadsTable;
+  upload_files: UploadFilesTable;
+  photos: PhotosTable;
+  jobs: JobsTable;
+  events: EventsTable;
 }
 
 /** The app's database handle. */

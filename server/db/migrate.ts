@@ -1,10 +1,12 @@
 import { Migrator, type Migration, type MigrationProvider } from 'kysely';
 import type { Db } from './database';
 import * as m0001 from './migrations/0001_foundation';
+import * as m0002 from './migrations/0002_ingest';
 
 /** Migrations in order; imported statically so they work the same under tsx, tests and builds. */
 const MIGRATIONS: Record<string, Migration> = {
   '0001_foundation': m0001,
+  '0002_ingest': m0002,
 };
 
 class StaticProvider implements MigrationProvider {

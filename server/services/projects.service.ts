@@ -1,12 +1,13 @@
 import {
   PUBLIC_PRECISION,
+  type Boundary,
   type CreateProjectBody,
   type ProjectDetail,
   type ProjectListItem,
   type SensitivityCategory,
   type UpdateProjectBody,
 } from '../../shared/projects';
-import type { ProjectRole } from '../../shared/roles';
+import { roleAtLeast, type ProjectRole } from '../../shared/roles';
 import type { Db } from '../db/database';
 import type { ProjectsTable } from '../db/schema/projects.table';
 import { ApiError } from '../errors/api-error';
@@ -37,6 +38,12 @@ export function toProjectDetail(row: ProjectsTable, role: ProjectRole | null): P
     publicPrecision: precision === undefined ? null : precision,
     sensitivityReviewDate: row.sensitivity_review_date,
     codePrefix: row.code_prefix,
+    boundary:
+      row.boundary_geojson && (precision !== null || roleAtLeast(role, 'ecologist'))
+        ? (JSON.parse(row.boundary_geojson) as Boundary)
+        : null,
+    tileUrl: row.tile_url,
+    gpsToleranceM: row.gps_tolerance_m,
     createdAt: row.created_at,
     role,
   };
@@ -71,6 +78,9 @@ const COLUMN: Record<keyof UpdateProjectBody, keyof ProjectsTable> = {
   sensitivity: 'sensitivity',
   sensitivityReviewDate: 'sensitivity_review_date',
   codePrefix: 'code_prefix',
+  boundary: 'boundary_geojson',
+  tileUrl: 'tile_url',
+  gpsToleranceM: 'gps_tolerance_m',
 };
 
 /** Creates a project; the slug must be new. */
@@ -103,6 +113,9 @@ export async function createProject(
     code_next: 1,
     created_at: nowIso(),
     created_by: actorId,
+    boundary_geojson: input.boundary ? JSON.stringify(input.boundary) : null,
+    tile_url: input.tileUrl,
+    gps_tolerance_m: input.gpsToleranceM,
   };
   await db.transaction().execute(async (trx) => {
     await trx.insertInto('projects').values(row).execute();
@@ -129,7 +142,7 @@ export async function updateProject(
   const before: Partial<Record<string, unknown>> = {};
   for (const [key, value] of Object.entries(patch) as [keyof UpdateProjectBody, unknown][]) {
     if (value === undefined) continue;
-    set[COLUMN[key]] = value;
+    set[COLUMN[key]] = key === 'boundary' && value !== null ? JSON.stringify(value) : value;
     before[key] = project[COLUMN[key]];
   }
   if (Object.keys(set).length === 0) return project;

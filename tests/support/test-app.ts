@@ -144,6 +144,9 @@ export async function seedTeam(db: Db, slug = 'test-survey') {
       sensitivity: 'high',
       sensitivityReviewDate: null,
       codePrefix: 'TS',
+      boundary: null,
+      tileUrl: null,
+      gpsToleranceM: 250,
     },
     admin.id,
   );

@@ -16,6 +16,9 @@ export interface ProjectsTable {
   code_next: number;
   created_at: string;
   created_by: string | null;
+  boundary_geojson: string | null;
+  tile_url: string | null;
+  gps_tolerance_m: number;
 }
 
 /** A user's role in one project. */
