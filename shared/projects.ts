@@ -35,7 +35,10 @@ const ring = z.array(position).min(4, { message: 'A boundary ring needs at least
 export const boundarySchema = z.union(
   [
     z.object({ type: z.literal('Polygon'), coordinates: z.array(ring).min(1) }),
-    z.object({ type: z.literal('MultiPolygon'), coordinates: z.array(z.array(ring).min(1)).min(1) }),
+    z.object({
+      type: z.literal('MultiPolygon'),
+      coordinates: z.array(z.array(ring).min(1)).min(1),
+    }),
   ],
   { message: 'The boundary must be a GeoJSON Polygon or MultiPolygon in longitude, latitude.' },
 );
