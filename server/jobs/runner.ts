@@ -108,8 +108,11 @@ export class JobRunner {
       }
     } finally {
       this.running--;
-      if (this.running === 0)
-        for (const resolve of [...this.idle]) (this.idle.delete(resolve), resolve());
+      if (this.running === 0) {
+        const waiting = [...this.idle];
+        this.idle.clear();
+        for (const resolve of waiting) resolve();
+      }
       this.kick();
     }
   }

@@ -1,4 +1,5 @@
 /** Normal, Student t, chi-square and beta distribution functions and quantiles. */
+/* eslint-disable no-loss-of-precision -- published algorithm coefficients are quoted digit for digit */
 import { betaInc, gammaP, gammaQ } from './special';
 import { brentRoot } from './roots';
 
