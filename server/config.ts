@@ -23,6 +23,7 @@ export interface Config {
   readonly uploadMaxFileMb: number;
   readonly uploadMaxFiles: number;
   readonly uploadMaxRequestMb: number;
+  readonly jobRetryMs: number;
 }
 
 function intFrom(
@@ -96,5 +97,6 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     uploadMaxFileMb: intFrom(env, 'UPLOAD_MAX_FILE_MB', 60, 1, 10_000),
     uploadMaxFiles: intFrom(env, 'UPLOAD_MAX_FILES', 200, 1, 100_000),
     uploadMaxRequestMb: intFrom(env, 'UPLOAD_MAX_REQUEST_MB', 2000, 1, 100_000),
+    jobRetryMs: intFrom(env, 'JOB_RETRY_MS', 1000, 1, 3_600_000),
   } satisfies Config);
 }

@@ -51,6 +51,8 @@ export async function startIngest(
       },
     },
     pool.threads,
+    500,
+    config.jobRetryMs,
   );
   if (options.startRunner ?? true) await runner.start();
   return {

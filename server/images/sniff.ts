@@ -86,6 +86,13 @@ export async function sniffUpload(
       message: 'This file is not a photo (its content is not an image).',
     };
   }
+  if (width * height > maxMegapixels * 1_000_000) {
+    return {
+      ok: false,
+      code: 'too_many_pixels',
+      message: `The image claims ${width}×${height} pixels, more than the ${maxMegapixels}-megapixel limit.`,
+    };
+  }
   if (type !== 'jpg') {
     return {
       ok: false,
@@ -98,13 +105,6 @@ export async function sniffUpload(
       ok: false,
       code: 'unreadable',
       message: 'The photo’s size could not be read; the file may be damaged.',
-    };
-  }
-  if (width * height > maxMegapixels * 1_000_000) {
-    return {
-      ok: false,
-      code: 'too_many_pixels',
-      message: `The photo claims ${width}×${height} pixels, more than the ${maxMegapixels}-megapixel limit.`,
     };
   }
   if (!hasJpegEnd(tail)) {

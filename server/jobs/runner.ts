@@ -30,6 +30,7 @@ export class JobRunner {
     >,
     private readonly concurrency: number,
     private readonly pollMs = 500,
+    private readonly retryBaseMs = 1000,
   ) {}
 
   /** Puts interrupted jobs back in the queue and starts polling. */
@@ -97,7 +98,7 @@ export class JobRunner {
     } catch (err) {
       const message = err instanceof Error ? err.message : String(err);
       try {
-        const outcome = await failJob(this.db, job, message);
+        const outcome = await failJob(this.db, job, message, this.retryBaseMs);
         if (outcome === 'failed') await handler?.onFinalFailure?.(payload, message, job);
         this.log.warn(
           { job: job.id, kind: job.kind, attempt: job.attempts, outcome, err: message },

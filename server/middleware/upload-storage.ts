@@ -2,9 +2,10 @@ import { createHash } from 'node:crypto';
 import { createWriteStream } from 'node:fs';
 import { pipeline } from 'node:stream/promises';
 import { Transform } from 'node:stream';
-import type { Request } from 'express';
+import type { Request, RequestHandler } from 'express';
 import multer, { type StorageEngine } from 'multer';
 import type { RejectCode } from '../../shared/ingest';
+import { ApiError } from '../errors/api-error';
 import type { PhotoStorage } from '../images/storage';
 
 /** Limits of one upload request. */
@@ -124,9 +125,25 @@ export function cardStorage(storage: PhotoStorage, limits: UploadLimits): Storag
 }
 
 /** The multer middleware for card uploads: field `photos`, many files. */
-export function cardUploadMiddleware(storage: PhotoStorage, limits: UploadLimits) {
-  return multer({
+export function cardUploadMiddleware(storage: PhotoStorage, limits: UploadLimits): RequestHandler {
+  const parse = multer({
     storage: cardStorage(storage, limits),
+    // Keep the full name the browser sent so names with paths are refused, not silently shortened.
+    preservePath: true,
     limits: { files: 100_000, fields: 20, fieldSize: 4096, parts: 100_100, headerPairs: 200 },
   }).array('photos');
+  // A request the multipart parser cannot read at all is the client's fault: answer 400, keep nothing.
+  return (req, res, next) =>
+    parse(req, res, (err?: unknown) => {
+      if (!err) return next();
+      const detail = err instanceof Error ? err.message : String(err);
+      next(
+        new ApiError(
+          'bad_request',
+          err instanceof multer.MulterError && err.code === 'LIMIT_UNEXPECTED_FILE'
+            ? `Send photos in the form field "photos" (got "${err.field ?? ''}").`
+            : `The upload could not be read (${detail}). Nothing from this request was kept; send it again.`,
+        ),
+      );
+    });
 }

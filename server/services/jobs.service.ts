@@ -76,9 +76,14 @@ export async function finishJob(db: Db, id: string): Promise<void> {
 }
 
 /** Records a failure: retried later with back-off, or failed for good after the last attempt. */
-export async function failJob(db: Db, job: JobsTable, error: string): Promise<'retry' | 'failed'> {
+export async function failJob(
+  db: Db,
+  job: JobsTable,
+  error: string,
+  retryBaseMs = 1000,
+): Promise<'retry' | 'failed'> {
   const finalFailure = job.attempts >= job.max_attempts;
-  const retryAt = new Date(Date.now() + 2 ** job.attempts * 1000).toISOString();
+  const retryAt = new Date(Date.now() + 2 ** job.attempts * retryBaseMs).toISOString();
   await db
     .updateTable('jobs')
     .set({

@@ -106,7 +106,9 @@ export async function corruptExifJpeg(): Promise<Buffer> {
 }
 
 /** Builds a multipart body by hand so file names can carry any bytes (including invalid UTF-8). */
-export function multipart(files: { field?: string; filename: Buffer | string; body: Buffer }[]): {
+export function multipart(
+  files: { field?: string; filename: Buffer | string; filenameStar?: string; body: Buffer }[],
+): {
   body: Buffer;
   contentType: string;
 } {
@@ -121,7 +123,9 @@ export function multipart(files: { field?: string; filename: Buffer | string; bo
       ),
     );
     parts.push(name);
-    parts.push(Buffer.from('"\r\nContent-Type: image/jpeg\r\n\r\n', 'latin1'));
+    // RFC 5987 form: percent-encoded UTF-8, so any character can travel in a valid header.
+    const star = f.filenameStar ? `; filename*=UTF-8''${encodeURIComponent(f.filenameStar)}` : '';
+    parts.push(Buffer.from(`"${star}\r\nContent-Type: image/jpeg\r\n\r\n`, 'latin1'));
     parts.push(f.body);
     parts.push(Buffer.from('\r\n', 'latin1'));
   }

@@ -47,7 +47,7 @@ export async function createTestContext(env: Record<string, string> = {}): Promi
   await migrateToLatest(db);
   const smtp = await startFakeSmtp(db);
   const mailer = createSmtpMailer(smtp.url, config.mailFrom);
-  const log = pino({ level: 'silent' });
+  const log = pino({ level: process.env['TEST_LOG_LEVEL'] ?? 'silent' });
   const ingest = await startIngest(db, config, log);
   const app = createApp({ db, config, log, mailer, ingest });
   return {
