@@ -167,7 +167,7 @@ describe('bad files in a card', () => {
         { dateTimeOriginal: `2026:07:05 10:00:${String(i).padStart(2, '0')}` },
         { color: 0x100000ff + i * 0x100 },
       );
-    const many = [{ name: 'big.jpg', body: big }];
+    const many: { name: string; body: Buffer }[] = [{ name: 'big.jpg', body: big }];
     for (let i = 0; i < 12; i++) many.push({ name: `s${i}.jpg`, body: await small(i) });
     const res = await upload(volunteer, SLUG, deployment, many);
     expect(res.status).toBe(201);
