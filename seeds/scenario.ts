@@ -31,6 +31,7 @@ export const DEMO_PROJECT = {
   boundary: null,
   tileUrl: null,
   gpsToleranceM: 250,
+  humanRetentionDays: null,
 };
 
 /** The season: 60 days of dry-season sampling (dates are local to the project's time zone). */

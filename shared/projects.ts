@@ -81,6 +81,7 @@ const settingsShape = {
   boundary: boundarySchema.nullable(),
   tileUrl: tileUrlSchema.nullable(),
   gpsToleranceM: z.number().int().min(10).max(100_000),
+  humanRetentionDays: z.number().int().min(1).max(3650).nullable(),
 };
 
 /** Body of `POST /api/admin/projects`. */
@@ -98,6 +99,7 @@ export const createProjectBodySchema = z
     boundary: settingsShape.boundary.default(null),
     tileUrl: settingsShape.tileUrl.default(null),
     gpsToleranceM: settingsShape.gpsToleranceM.default(250),
+    humanRetentionDays: settingsShape.humanRetentionDays.default(null),
   })
   .strict();
 export type CreateProjectBody = z.infer<typeof createProjectBodySchema>;
@@ -131,6 +133,7 @@ export interface ProjectDetail {
   boundary: Boundary | null;
   tileUrl: string | null;
   gpsToleranceM: number;
+  humanRetentionDays: number | null;
   createdAt: string;
   role: ProjectRole | null;
 }

@@ -1,4 +1,6 @@
+import { sql } from 'kysely';
 import type { Db } from '../db/database';
+import type { EventsTable } from '../db/schema/ingest.table';
 import type { PhotoFlag } from '../../shared/ingest';
 import { newId, nowIso } from './ids';
 import { KEEP_OUT_OF_EVENTS } from './photo-flags';
@@ -34,9 +36,43 @@ function eligible(flags: string): boolean {
   return !list.some((f) => KEEP_OUT_OF_EVENTS.includes(f));
 }
 
+type EventRow = Pick<
+  EventsTable,
+  | 'id'
+  | 'start'
+  | 'end'
+  | 'photo_count'
+  | 'label'
+  | 'species'
+  | 'animal_count'
+  | 'sorted_by'
+  | 'sorted_at'
+>;
+
+/**
+ * A new event made by regrouping takes the label of the old event most of its photos came from:
+ * labels describe what the photos show, so they follow the photos.
+ */
+function inheritedLabel(source: EventRow | undefined) {
+  return {
+    label: source?.label ?? null,
+    species: source?.species ?? null,
+    animal_count: source?.animal_count ?? null,
+    sorted_by: source?.sorted_by ?? null,
+    sorted_at: source?.sorted_at ?? null,
+    label_version: source?.label ? 1 : 0,
+    lease_holder: null,
+    lease_until: null,
+  };
+}
+
+function mostCommon(counts: Map<string, number>): string | undefined {
+  return [...counts.entries()].sort((a, b) => b[1] - a[1] || a[0].localeCompare(b[0]))[0]?.[0];
+}
+
 /**
  * Regroups every photo of one station (both cameras of a pair) into events. Events keep their ids
- * where their photos stay together, so labels attached to them survive a regrouping.
+ * (and labels) where most of their photos stay together; sightings follow their best photo.
  */
 export async function regroupStation(
   db: Db,
@@ -57,9 +93,19 @@ export async function regroupStation(
       (r): r is typeof r & { taken_at: string } => r.taken_at !== null && eligible(r.flags),
     );
     const groups = groupByInterval<GroupPhoto>(placed, intervalMinutes);
-    const existing = await trx
+    const existing: EventRow[] = await trx
       .selectFrom('events')
-      .select(['id', 'start', 'end', 'photo_count'])
+      .select([
+        'id',
+        'start',
+        'end',
+        'photo_count',
+        'label',
+        'species',
+        'animal_count',
+        'sorted_by',
+        'sorted_at',
+      ])
       .where('station_id', '=', stationId)
       .execute();
     const before = new Map(existing.map((e) => [e.id, e]));
@@ -68,28 +114,28 @@ export async function regroupStation(
     const assignment = new Map<string, string | null>();
     for (const r of rows) assignment.set(r.id, null);
     for (const group of groups) {
+      const origins = new Map<string, number>();
       const votes = new Map<string, number>();
-      for (const p of group)
-        if (p.event_id && unclaimed.has(p.event_id))
-          votes.set(p.event_id, (votes.get(p.event_id) ?? 0) + 1);
-      const reuse = [...votes.entries()].sort(
-        (a, b) => b[1] - a[1] || a[0].localeCompare(b[0]),
-      )[0]?.[0];
+      for (const p of group) {
+        if (!p.event_id) continue;
+        origins.set(p.event_id, (origins.get(p.event_id) ?? 0) + 1);
+        if (unclaimed.has(p.event_id)) votes.set(p.event_id, (votes.get(p.event_id) ?? 0) + 1);
+      }
+      const reuse = mostCommon(votes);
       const eventId = reuse ?? newId();
       const start = group[0]!.taken_at;
       const end = group[group.length - 1]!.taken_at;
+      for (const p of group) assignment.set(p.id, eventId);
       if (reuse) {
         unclaimed.delete(reuse);
         const old = before.get(reuse)!;
-        if (old.start === start && old.end === end && old.photo_count === group.length) {
-          for (const p of group) assignment.set(p.id, eventId);
-          continue;
+        if (old.start !== start || old.end !== end || old.photo_count !== group.length) {
+          await trx
+            .updateTable('events')
+            .set({ start, end, photo_count: group.length })
+            .where('id', '=', reuse)
+            .execute();
         }
-        await trx
-          .updateTable('events')
-          .set({ start, end, photo_count: group.length })
-          .where('id', '=', reuse)
-          .execute();
       } else {
         await trx
           .insertInto('events')
@@ -101,10 +147,10 @@ export async function regroupStation(
             end,
             photo_count: group.length,
             created_at: nowIso(),
+            ...inheritedLabel(before.get(mostCommon(origins) ?? '')),
           })
           .execute();
       }
-      for (const p of group) assignment.set(p.id, eventId);
     }
 
     const changes = new Map<string | null, string[]>();
@@ -120,6 +166,15 @@ export async function regroupStation(
           .where('id', 'in', ids.slice(i, i + 500))
           .execute();
       }
+    }
+    if (changes.size) {
+      // Sightings follow their best photo into its new event before emptied events are removed.
+      await sql`update sightings
+        set event_id = (select event_id from photos where photos.id = sightings.best_photo_id)
+        where event_id in (select id from events where station_id = ${stationId})
+          and (select event_id from photos where photos.id = sightings.best_photo_id) is not null`.execute(
+        trx,
+      );
     }
     if (unclaimed.size) {
       await trx

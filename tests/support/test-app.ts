@@ -154,6 +154,7 @@ export async function seedTeam(db: Db, slug = 'test-survey') {
       boundary: null,
       tileUrl: null,
       gpsToleranceM: 250,
+      humanRetentionDays: null,
     },
     admin.id,
   );
