@@ -19,6 +19,7 @@ import { healthRoutes } from './routes/health.routes';
 import { deploymentsRoutes } from './routes/deployments.routes';
 import { photosRoutes } from './routes/photos.routes';
 import { projectsRoutes } from './routes/projects.routes';
+import { sortRoutes } from './routes/sort.routes';
 import { stationsRoutes } from './routes/stations.routes';
 import { uploadsRoutes } from './routes/uploads.routes';
 
@@ -91,6 +92,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(deploymentsRoutes(deps));
   api.use(uploadsRoutes(deps));
   api.use(photosRoutes(deps));
+  api.use(sortRoutes(deps));
   api.use(apiNotFound);
   app.use('/api', api);
 

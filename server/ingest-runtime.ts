@@ -3,9 +3,10 @@ import type { Config } from './config';
 import type { Db } from './db/database';
 import { createImagePool, type ImagePool } from './images/pool';
 import { PhotoStorage } from './images/storage';
-import { derivativesFailed, derivativesHandler } from './jobs/photo-jobs';
+import { blurHandler, derivativesFailed, derivativesHandler } from './jobs/photo-jobs';
 import { JobRunner } from './jobs/runner';
 import type { UploadLimits } from './middleware/upload-storage';
+import { purgeExpiredHumanPhotos } from './services/retention.service';
 
 /** Photo storage, the worker pool and the job runner: the moving parts of ingest. */
 export interface IngestRuntime {
@@ -49,12 +50,20 @@ export async function startIngest(
         run: derivativesHandler(db, pool, storage),
         onFinalFailure: derivativesFailed(db),
       },
+      blur: { run: blurHandler(db, pool, storage) },
     },
     pool.threads,
     500,
     config.jobRetryMs,
   );
   if (options.startRunner ?? true) await runner.start();
+  // Photos of people past a project's retention period are deleted hourly.
+  const retention = setInterval(() => {
+    purgeExpiredHumanPhotos(db, storage).catch((err: unknown) =>
+      log.error({ err }, 'retention sweep failed'),
+    );
+  }, 3600_000);
+  retention.unref();
   return {
     storage,
     pool,
@@ -66,6 +75,7 @@ export async function startIngest(
     },
     maxMegapixels: config.maxMegapixels,
     async stop() {
+      clearInterval(retention);
       await runner.stop();
       await pool.close();
     },

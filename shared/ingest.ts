@@ -32,7 +32,7 @@ export interface UploadResponse {
 }
 
 /** Processing states of a photo. */
-export type PhotoStatus = 'queued' | 'processing' | 'ready' | 'failed';
+export type PhotoStatus = 'queued' | 'processing' | 'ready' | 'failed' | 'purged';
 
 /** Flags a photo can carry after ingest. */
 export const PHOTO_FLAGS = [

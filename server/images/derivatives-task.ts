@@ -1,6 +1,6 @@
 import { readFile } from 'node:fs/promises';
 import { decodeJpeg, encodeJpeg } from './codec';
-import { downscale, fitWithin } from './resize';
+import { downscale, fitWithin, pixelate } from './resize';
 import { PhotoStorage } from './storage';
 
 /** One derivatives job for the worker pool. */
@@ -38,5 +38,25 @@ export default async function makeDerivatives(task: DerivativesTask): Promise<De
     await encodeJpeg(preview, 80),
   );
   await storage.writeAtomic(storage.derivedPath(task.sha256, 'thumb'), await encodeJpeg(thumb, 75));
+  return { width: pixels.width, height: pixels.height, ms: performance.now() - started };
+}
+
+/** Blurred copies of a photo of people (what reviewers see until they choose to reveal it). */
+export async function makeBlurred(task: DerivativesTask): Promise<DerivativesResult> {
+  const started = performance.now();
+  const storage = new PhotoStorage(task.root);
+  const pixels = await decodeJpeg(await readFile(storage.absolute(task.storedPath)));
+  const previewSize = fitWithin(pixels.width, pixels.height, 800);
+  const preview = pixelate(pixels, previewSize.width, previewSize.height, 16);
+  const thumbSize = fitWithin(pixels.width, pixels.height, THUMB_MAX);
+  const thumb = pixelate(pixels, thumbSize.width, thumbSize.height, 16);
+  await storage.writeAtomic(
+    storage.derivedPath(task.sha256, 'preview-blur'),
+    await encodeJpeg(preview, 70),
+  );
+  await storage.writeAtomic(
+    storage.derivedPath(task.sha256, 'thumb-blur'),
+    await encodeJpeg(thumb, 70),
+  );
   return { width: pixels.width, height: pixels.height, ms: performance.now() - started };
 }

@@ -7,6 +7,7 @@ import type { DerivativesResult, DerivativesTask } from './derivatives-task';
 export interface ImagePool {
   readonly threads: number;
   makeDerivatives(task: DerivativesTask): Promise<DerivativesResult>;
+  makeBlurred(task: DerivativesTask): Promise<DerivativesResult>;
   close(): Promise<void>;
 }
 
@@ -23,7 +24,9 @@ export function createImagePool(threads = availableParallelism()): ImagePool {
   });
   return {
     threads: size,
-    makeDerivatives: (task) => piscina.run(task) as Promise<DerivativesResult>,
+    makeDerivatives: (task) =>
+      piscina.run(task, { name: 'derivatives' }) as Promise<DerivativesResult>,
+    makeBlurred: (task) => piscina.run(task, { name: 'blur' }) as Promise<DerivativesResult>,
     close: () => piscina.destroy(),
   };
 }

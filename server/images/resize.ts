@@ -81,3 +81,29 @@ export function downscale(src: Pixels, width: number, height: number): Pixels {
   }
   return { data: out, width, height };
 }
+
+/**
+ * A coarse mosaic for photos of people: averaged into blocks about `blocks` across, then scaled
+ * back up by repeating each block. Faces and number plates do not survive it.
+ */
+export function pixelate(src: Pixels, width: number, height: number, blocks = 16): Pixels {
+  const small = downscale(
+    src,
+    Math.max(1, blocks),
+    Math.max(1, Math.round((blocks * src.height) / src.width)),
+  );
+  const out = new Uint8ClampedArray(width * height * 4);
+  for (let y = 0; y < height; y++) {
+    const sy = Math.min(small.height - 1, Math.floor((y * small.height) / height));
+    for (let x = 0; x < width; x++) {
+      const sx = Math.min(small.width - 1, Math.floor((x * small.width) / width));
+      const i = (sy * small.width + sx) * 4;
+      const o = (y * width + x) * 4;
+      out[o] = small.data[i]!;
+      out[o + 1] = small.data[i + 1]!;
+      out[o + 2] = small.data[i + 2]!;
+      out[o + 3] = 255;
+    }
+  }
+  return { data: out, width, height };
+}

@@ -2,6 +2,9 @@ import { randomBytes } from 'node:crypto';
 import { mkdir, readdir, rename, rm, stat, unlink, writeFile } from 'node:fs/promises';
 import { dirname, join, relative } from 'node:path';
 
+/** Derivative files kept per photo: previews, thumbnails, the camera's own thumbnail, blurred copies. */
+export type DerivedKind = 'thumb' | 'preview' | 'exif-thumb' | 'thumb-blur' | 'preview-blur';
+
 /** Where photo bytes live: content-addressed originals, derivatives per hash, and a temp area. */
 export class PhotoStorage {
   readonly tmpDir: string;
@@ -37,7 +40,7 @@ export class PhotoStorage {
   }
 
   /** Derivative file of a photo's bytes: 'thumb', 'preview' or 'exif-thumb'. */
-  derivedPath(sha256: string, kind: 'thumb' | 'preview' | 'exif-thumb'): string {
+  derivedPath(sha256: string, kind: DerivedKind): string {
     return join(this.derivedDir, sha256.slice(0, 2), sha256, `${kind}.jpg`);
   }
 

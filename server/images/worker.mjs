@@ -1,8 +1,10 @@
-// Worker-thread entry: lets piscina run the TypeScript task under tsx in any host process
-// (the tsx CLI, Vitest, or plain node).
+// Worker-thread entry: lets piscina run the TypeScript tasks under tsx in any host process
+// (the tsx CLI, Vitest, or plain node). Tasks are chosen by name.
 import { register } from 'tsx/esm/api';
 
 register();
-const task = await import('./derivatives-task.ts');
+const tasks = await import('./derivatives-task.ts');
 
-export default task.default;
+export const derivatives = tasks.default;
+export const blur = tasks.makeBlurred;
+export default tasks.default;

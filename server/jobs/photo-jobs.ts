@@ -56,3 +56,20 @@ export function derivativesFailed(db: Db): FinalFailureHandler {
       .execute();
   };
 }
+
+/** Makes the blurred copies of a photo of people. */
+export function blurHandler(db: Db, pool: ImagePool, storage: PhotoStorage): JobHandler {
+  return async (payload) => {
+    const photo = await db
+      .selectFrom('photos')
+      .select(['sha256', 'stored_path'])
+      .where('id', '=', photoIdOf(payload))
+      .executeTakeFirst();
+    if (!photo || !photo.stored_path) return;
+    await pool.makeBlurred({
+      root: storage.root,
+      storedPath: photo.stored_path,
+      sha256: photo.sha256,
+    });
+  };
+}

@@ -12,6 +12,8 @@ export interface PhotoContext {
   row: PhotosTable;
   project: ProjectsTable;
   role: ProjectRole;
+  /** The photo is in an event labelled human: blurred for reviewers until revealed. */
+  human: boolean;
 }
 
 declare global {
@@ -59,7 +61,18 @@ export function photoAccess(db: Db): Guard {
         );
       }
     }
-    req.photo = { row, project, role };
+    const event = row.event_id
+      ? await db
+          .selectFrom('events')
+          .select('label')
+          .where('id', '=', row.event_id)
+          .executeTakeFirst()
+      : undefined;
+    const human = event?.label === 'human';
+    if (human && !roleAtLeast(role, 'reviewer')) {
+      throw new ApiError('forbidden', 'Photos of people are not shown to volunteers.');
+    }
+    req.photo = { row, project, role, human };
     next();
   };
   return Object.assign(handler as RequestHandler, {

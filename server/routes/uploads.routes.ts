@@ -145,7 +145,7 @@ export function uploadsRoutes(deps: AppDeps): Router {
     const page = await listPhotos(
       db,
       row.id,
-      { ...query, uploaderId: ownOnly(req) },
+      { ...query, uploaderId: ownOnly(req), hideHuman: !roleAtLeast(role, 'reviewer') },
       precisionFor(row, role),
     );
     if (page.next) res.set('X-Next-Cursor', page.next);

@@ -37,6 +37,8 @@ export interface PhotoFilter {
   status?: PhotoStatus;
   flag?: PhotoFlag;
   uploaderId?: string | null;
+  /** Leave out photos of events labelled human (volunteers never see them). */
+  hideHuman?: boolean;
   after?: string;
   limit: number;
 }
@@ -57,6 +59,19 @@ export async function listPhotos(
     q = q
       .innerJoin('card_uploads', 'card_uploads.id', 'photos.upload_id')
       .where('card_uploads.uploader_id', '=', filter.uploaderId);
+  }
+  if (filter.hideHuman) {
+    q = q.where((eb) =>
+      eb.not(
+        eb.exists(
+          eb
+            .selectFrom('events')
+            .select('events.id')
+            .whereRef('events.id', '=', 'photos.event_id')
+            .where('events.label', '=', 'human'),
+        ),
+      ),
+    );
   }
   if (filter.after) {
     const [at, id] = decodeCursor(filter.after, 2) as [string, string];
