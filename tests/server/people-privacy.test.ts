@@ -19,7 +19,7 @@ let team: Awaited<ReturnType<typeof seedTeam>>;
 let reviewer: TestClient;
 let volunteer: TestClient;
 let humanEvent: { id: string; photos: { id: string }[] };
-let stationCode = 'P01';
+const stationCode = 'P01';
 let uploadId: string;
 const SLUG = 'test-survey';
 
