@@ -13,6 +13,7 @@ export function normalCdf(x: number): number {
   return 0.5 * gammaQ(0.5, y * y);
 }
 
+/* eslint-disable no-loss-of-precision -- the AS 241 coefficients are kept digit for digit as published. */
 /** Standard normal quantile Φ⁻¹(p) (Wichura 1988, AS 241, about 16 digits). */
 export function normalQuantile(p: number): number {
   if (p <= 0) return -Infinity;
@@ -104,6 +105,7 @@ export function normalQuantile(p: number): number {
   }
   return q < 0 ? -value : value;
 }
+/* eslint-enable no-loss-of-precision */
 
 /** Student t cumulative distribution with `df` degrees of freedom. */
 export function tCdf(x: number, df: number): number {
