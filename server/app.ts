@@ -14,6 +14,7 @@ import type { Mailer } from './mail/mailer';
 import { csrfProtection, xsrfCookie } from './middleware/csrf';
 import { adminRoutes } from './routes/admin.routes';
 import { authRoutes } from './routes/auth.routes';
+import { estimateRoutes } from './routes/estimate.routes';
 import { healthRoutes } from './routes/health.routes';
 import { projectsRoutes } from './routes/projects.routes';
 
@@ -81,6 +82,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(authRoutes(deps, passport));
   api.use(projectsRoutes(deps));
   api.use(adminRoutes(deps));
+  api.use(estimateRoutes(deps));
   api.use(apiNotFound);
   app.use('/api', api);
 
