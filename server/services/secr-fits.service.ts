@@ -70,7 +70,7 @@ export class SecrJobs {
       id: newId(),
       userId,
       status: 'running',
-      progress: { stage: 'waiting for a free worker', fraction: 0 },
+      progress: { stage: 'queued; starts when the fitting worker is free', fraction: 0 },
       createdAt: nowIso(),
     };
     this.jobs.set(job.id, job);

@@ -7,6 +7,13 @@ import type { CaptureRow, TrapRow } from './estimate-input';
 import { TrapPlot } from './trap-plot';
 import { WarningList } from './warning-list';
 
+/** A relative change as a signed percentage; changes under 0.05 % read as "no change". */
+function signedPercent(change: number): string {
+  const pct = 100 * change;
+  if (Math.abs(pct) < 0.05) return 'no change to 0.1 %';
+  return `${pct > 0 ? '+' : '−'}${formatNumber(Math.abs(pct), 1)} %`;
+}
+
 /** SECR density result: D per km² and per 100 km², detection parameters, charts and cautions. */
 @Component({
   selector: 'mac-secr-results',
@@ -42,7 +49,7 @@ export class SecrResults {
       esa: formatNumber(r.esa, 3),
       mask: `${formatNumber(r.mask.spacing, 0)} m spacing, ${formatNumber(r.mask.buffer, 0)} m buffer, ${r.mask.points.toLocaleString('en')} points`,
       check: check
-        ? `${formatNumber(check.D, 2)} per km² with a ${formatNumber(check.buffer, 0)} m buffer (${check.relativeChange >= 0 ? '+' : ''}${formatNumber(100 * check.relativeChange, 1)} %)`
+        ? `${formatNumber(check.D, 2)} per km² with a ${formatNumber(check.buffer, 0)} m buffer (${signedPercent(check.relativeChange)})`
         : 'not run',
     };
   });

@@ -92,8 +92,8 @@ export class TrapPlot {
       },
       legend: { top: 0, textStyle: { color: CHART_TEXT } },
       tooltip: { trigger: 'item' },
-      xAxis: { ...axis(cx), name: 'x (m)' },
-      yAxis: { ...axis(cy), name: 'y (m)' },
+      xAxis: { ...axis(cx), name: 'x (m)', nameLocation: 'middle', nameGap: 24 },
+      yAxis: { ...axis(cy), name: 'y (m)', nameLocation: 'middle', nameGap: 36 },
       series: [
         {
           type: 'line',
