@@ -145,6 +145,14 @@ describe('POST /api/estimate/secr', () => {
       expect(res.body.error.message).toMatch(message);
     });
   }
+  it('should still fit after a caller gave up on a direct fit mid-way', async () => {
+    const slow = { ...survey(), mask: { spacing: 5, buffer: 200 } };
+    await expect(client.post('/api/estimate/secr', slow).timeout(400)).rejects.toThrow(/Timeout/);
+    // The abandoned fit's worker is terminated; the next fit gets a fresh one.
+    const res = await client.post('/api/estimate/secr', survey());
+    expect(res.status).toBe(200);
+    expect(res.body.D).toBeGreaterThan(0);
+  });
 });
 
 describe('SECR jobs', () => {

@@ -19,7 +19,7 @@ export interface ModelPoint {
 
 /** Draws the whisker of one interval: a line from lo to hi with end caps (open end if unbounded). */
 function whisker(
-  params: CustomSeriesRenderItemParams,
+  _params: CustomSeriesRenderItemParams,
   api: CustomSeriesRenderItemAPI,
 ): CustomSeriesRenderItemReturn {
   const row = Number(api.value(2));
@@ -37,7 +37,7 @@ function whisker(
     cap(lo[0]!, lo[1]!),
   ];
   if (!open) children.push(cap(hi[0]!, hi[1]!));
-  return { type: 'group', children, silent: params.dataIndex < 0 };
+  return { type: 'group', children };
 }
 
 /** N̂ with its 95 % interval per model, with a line at S (estimates below it are impossible). */
