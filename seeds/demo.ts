@@ -3,7 +3,15 @@ import type { Db } from '../server/db/database';
 import { createProject } from '../server/services/projects.service';
 import { setMemberRole } from '../server/services/members.service';
 import { createUser } from '../server/services/users.service';
-import { DEMO_PASSWORD, DEMO_PROJECT, DEMO_USERS } from './scenario';
+import {
+  DEMO_PASSWORD,
+  DEMO_PROJECT,
+  DEMO_USERS,
+  demoBoundary,
+  demoDeployments,
+  demoStations,
+} from './scenario';
+import { newId, nowIso } from '../server/services/ids';
 
 /** Options for seeding; uploadsDir is where the demo photos will be written. */
 export interface SeedOptions {
@@ -30,11 +38,58 @@ export async function seedDemo(db: Db, _options: SeedOptions): Promise<boolean> 
   }
   const adminId = ids.get('admin@demo.test') ?? null;
   if (!adminId) throw new Error('demo admin missing');
-  const project = await createProject(db, { ...DEMO_PROJECT }, adminId);
+  const project = await createProject(db, { ...DEMO_PROJECT, boundary: demoBoundary() }, adminId);
   for (const user of DEMO_USERS) {
     const id = ids.get(user.email);
     if (user.role && id) await setMemberRole(db, project.id, id, user.role, adminId);
   }
-  // Stations, deployments and the demo photos are added by the ingest seed step (see seeds/README.md).
+  await seedStations(db, project.id, adminId);
   return true;
+}
+
+/** The demo grid: 20 stations, two cameras each, for the 60-day season. */
+async function seedStations(db: Db, projectId: string, actorId: string): Promise<void> {
+  const ids = new Map<string, string>();
+  await db.transaction().execute(async (trx) => {
+    for (const s of demoStations()) {
+      const id = newId();
+      ids.set(s.code, id);
+      await trx
+        .insertInto('stations')
+        .values({
+          id,
+          project_id: projectId,
+          code: s.code,
+          name: s.name,
+          lat: s.lat,
+          lon: s.lon,
+          notes: '',
+          created_at: nowIso(),
+        })
+        .execute();
+    }
+    for (const d of demoDeployments()) {
+      await trx
+        .insertInto('deployments')
+        .values({
+          id: newId(),
+          project_id: projectId,
+          station_id: ids.get(d.stationCode)!,
+          camera_label: d.cameraLabel,
+          camera_serial: d.cameraSerial,
+          start: d.start,
+          end: d.end,
+          timezone: DEMO_PROJECT.timezone,
+          clock_offset_seconds: 0,
+          last_working: d.lastWorking,
+          feature_type: d.featureType,
+          bait_use: 0,
+          notes: d.notes,
+          clock_fix: null,
+          created_by: actorId,
+          created_at: nowIso(),
+        })
+        .execute();
+    }
+  });
 }

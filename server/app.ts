@@ -10,13 +10,18 @@ import { KyselySessionStore } from './auth/session-store';
 import type { Config } from './config';
 import type { Db } from './db/database';
 import { apiNotFound, errorHandler } from './errors/error-handler';
+import type { IngestRuntime } from './ingest-runtime';
 import type { Mailer } from './mail/mailer';
 import { csrfProtection, xsrfCookie } from './middleware/csrf';
 import { adminRoutes } from './routes/admin.routes';
 import { authRoutes } from './routes/auth.routes';
 import { estimateRoutes } from './routes/estimate.routes';
 import { healthRoutes } from './routes/health.routes';
+import { deploymentsRoutes } from './routes/deployments.routes';
+import { photosRoutes } from './routes/photos.routes';
 import { projectsRoutes } from './routes/projects.routes';
+import { stationsRoutes } from './routes/stations.routes';
+import { uploadsRoutes } from './routes/uploads.routes';
 
 /** What the app needs from the outside world; tests pass their own. */
 export interface AppDeps {
@@ -24,6 +29,7 @@ export interface AppDeps {
   config: Config;
   log: Logger;
   mailer: Mailer;
+  ingest: IngestRuntime;
 }
 
 export const SESSION_COOKIE = 'maculo.sid';
@@ -82,6 +88,10 @@ export function createApp(deps: AppDeps): Express {
   api.use(authRoutes(deps, passport));
   api.use(projectsRoutes(deps));
   api.use(adminRoutes(deps));
+  api.use(stationsRoutes(deps));
+  api.use(deploymentsRoutes(deps));
+  api.use(uploadsRoutes(deps));
+  api.use(photosRoutes(deps));
   api.use(estimateRoutes(deps));
   api.use(apiNotFound);
   app.use('/api', api);

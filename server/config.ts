@@ -1,5 +1,6 @@
 import { randomBytes } from 'node:crypto';
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { availableParallelism } from 'node:os';
 import { dirname, resolve } from 'node:path';
 
 /** Everything the server reads from its environment, checked once at start. */
@@ -17,6 +18,12 @@ export interface Config {
   readonly logLevel: string;
   readonly clientDist: string;
   readonly loginRateLimit: number;
+  readonly workers: number;
+  readonly maxMegapixels: number;
+  readonly uploadMaxFileMb: number;
+  readonly uploadMaxFiles: number;
+  readonly uploadMaxRequestMb: number;
+  readonly jobRetryMs: number;
 }
 
 function intFrom(
@@ -85,5 +92,11 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     logLevel: env['LOG_LEVEL'] ?? 'info',
     clientDist: resolve(env['CLIENT_DIST'] ?? 'dist/maculo/browser'),
     loginRateLimit: intFrom(env, 'LOGIN_RATE_LIMIT', 10, 1, 100000),
+    workers: intFrom(env, 'WORKERS', Math.max(1, Math.min(availableParallelism(), 8)), 1, 64),
+    maxMegapixels: intFrom(env, 'MAX_MEGAPIXELS', 50, 1, 500),
+    uploadMaxFileMb: intFrom(env, 'UPLOAD_MAX_FILE_MB', 60, 1, 10_000),
+    uploadMaxFiles: intFrom(env, 'UPLOAD_MAX_FILES', 200, 1, 100_000),
+    uploadMaxRequestMb: intFrom(env, 'UPLOAD_MAX_REQUEST_MB', 2000, 1, 100_000),
+    jobRetryMs: intFrom(env, 'JOB_RETRY_MS', 1000, 1, 3_600_000),
   } satisfies Config);
 }

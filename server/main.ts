@@ -4,6 +4,7 @@ import { createApp } from './app';
 import { loadConfig } from './config';
 import { openDatabase } from './db/database';
 import { migrateToLatest } from './db/migrate';
+import { startIngest } from './ingest-runtime';
 import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp';
 import { createSmtpMailer } from './mail/mailer';
 import { closeSecrPool } from './workers/secr-pool';
@@ -33,7 +34,8 @@ async function main(): Promise<void> {
     if (seeded) log.info('demo project seeded (see README for the demo accounts)');
   }
 
-  const app = createApp({ db, config, log, mailer });
+  const ingest = await startIngest(db, config, log);
+  const app = createApp({ db, config, log, mailer, ingest });
   const server = app.listen(config.port, config.host, () => {
     log.info(`Maculo is running on ${config.publicUrl}`);
   });
@@ -43,6 +45,7 @@ async function main(): Promise<void> {
     log.info({ signal }, 'shutting down');
     server.close(() => {
       mailer.close();
+      void ingest.stop();
       void Promise.resolve(fakeSmtp?.close()).finally(
         () => void db.destroy().finally(() => process.exit(0)),
       );

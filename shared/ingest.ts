@@ -113,8 +113,14 @@ export interface PhotoView {
 /** Query of `GET /api/projects/:slug/photos`. */
 export const photoListQuerySchema = z
   .object({
-    uploadId: z.string().regex(/^[0-9a-f]{20}$/, { message: 'uploadId is not a valid id.' }).optional(),
-    deploymentId: z.string().regex(/^[0-9a-f]{20}$/, { message: 'deploymentId is not a valid id.' }).optional(),
+    uploadId: z
+      .string()
+      .regex(/^[0-9a-f]{20}$/, { message: 'uploadId is not a valid id.' })
+      .optional(),
+    deploymentId: z
+      .string()
+      .regex(/^[0-9a-f]{20}$/, { message: 'deploymentId is not a valid id.' })
+      .optional(),
     status: z.enum(['queued', 'processing', 'ready', 'failed']).optional(),
     flag: z.enum(PHOTO_FLAGS).optional(),
     after: z.string().max(200).optional(),

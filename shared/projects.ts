@@ -35,7 +35,10 @@ const ring = z.array(position).min(4, { message: 'A boundary ring needs at least
 export const boundarySchema = z.union(
   [
     z.object({ type: z.literal('Polygon'), coordinates: z.array(ring).min(1) }),
-    z.object({ type: z.literal('MultiPolygon'), coordinates: z.array(z.array(ring).min(1)).min(1) }),
+    z.object({
+      type: z.literal('MultiPolygon'),
+      coordinates: z.array(z.array(ring).min(1)).min(1),
+    }),
   ],
   { message: 'The boundary must be a GeoJSON Polygon or MultiPolygon in longitude, latitude.' },
 );
@@ -78,6 +81,7 @@ const settingsShape = {
   boundary: boundarySchema.nullable(),
   tileUrl: tileUrlSchema.nullable(),
   gpsToleranceM: z.number().int().min(10).max(100_000),
+  humanRetentionDays: z.number().int().min(1).max(3650).nullable(),
 };
 
 /** Body of `POST /api/admin/projects`. */
@@ -95,6 +99,7 @@ export const createProjectBodySchema = z
     boundary: settingsShape.boundary.default(null),
     tileUrl: settingsShape.tileUrl.default(null),
     gpsToleranceM: settingsShape.gpsToleranceM.default(250),
+    humanRetentionDays: settingsShape.humanRetentionDays.default(null),
   })
   .strict();
 export type CreateProjectBody = z.infer<typeof createProjectBodySchema>;
@@ -128,6 +133,7 @@ export interface ProjectDetail {
   boundary: Boundary | null;
   tileUrl: string | null;
   gpsToleranceM: number;
+  humanRetentionDays: number | null;
   createdAt: string;
   role: ProjectRole | null;
 }

@@ -20,7 +20,12 @@ export const FEATURE_TYPES = [
 export type FeatureType = (typeof FEATURE_TYPES)[number];
 
 /** Feature types whose locations are never public at fine resolution (dens, nests, carcasses, water). */
-export const SENSITIVE_FEATURES: readonly FeatureType[] = ['burrow', 'nestSite', 'carcass', 'waterSource'];
+export const SENSITIVE_FEATURES: readonly FeatureType[] = [
+  'burrow',
+  'nestSite',
+  'carcass',
+  'waterSource',
+];
 
 const latitude = z
   .number({ message: 'Latitude must be a number of decimal degrees.' })
@@ -96,34 +101,59 @@ export interface StationImportReport {
 
 const isoInstant = z
   .string({ message: 'A date and time is required.' })
-  .refine((s) => /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2}(\.\d+)?)?(Z|[+-]\d{2}:\d{2})$/.test(s) && !Number.isNaN(Date.parse(s)), {
-    message: 'Use an ISO 8601 date and time with a zone, e.g. 2026-07-01T08:30:00Z or 2026-07-01T11:30:00+03:00.',
-  })
+  .refine(
+    (s) =>
+      /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2}(\.\d+)?)?(Z|[+-]\d{2}:\d{2})$/.test(s) &&
+      !Number.isNaN(Date.parse(s)),
+    {
+      message:
+        'Use an ISO 8601 date and time with a zone, e.g. 2026-07-01T08:30:00Z or 2026-07-01T11:30:00+03:00.',
+    },
+  )
   .transform((s) => new Date(s).toISOString().replace(/\.000Z$/, 'Z'));
 
 const deploymentShape = {
   stationId: z.string().regex(/^[0-9a-f]{20}$/, { message: 'stationId is not a valid id.' }),
-  cameraLabel: z.string().trim().min(1, { message: 'A camera label is required (e.g. A or B).' }).max(40),
+  cameraLabel: z
+    .string()
+    .trim()
+    .min(1, { message: 'A camera label is required (e.g. A or B).' })
+    .max(40),
   cameraSerial: z.string().trim().max(80).nullable(),
   start: isoInstant,
   end: isoInstant,
   timezone: timeZoneSchema,
-  clockOffsetSeconds: z.number().int().min(-50 * 365 * 86400).max(50 * 365 * 86400),
+  clockOffsetSeconds: z
+    .number()
+    .int()
+    .min(-50 * 365 * 86400)
+    .max(50 * 365 * 86400),
   lastWorking: isoInstant.nullable(),
   featureType: z.enum(FEATURE_TYPES).nullable(),
   baitUse: z.boolean(),
   notes: z.string().max(2000),
 };
 
-function checkWindow(d: { start?: string; end?: string; lastWorking?: string | null }, ctx: z.RefinementCtx): void {
+function checkWindow(
+  d: { start?: string; end?: string; lastWorking?: string | null },
+  ctx: z.RefinementCtx,
+): void {
   if (d.start && d.end && d.end <= d.start) {
     ctx.addIssue({ code: 'custom', path: ['end'], message: 'The end must be after the start.' });
   }
   if (d.lastWorking && d.start && d.lastWorking < d.start) {
-    ctx.addIssue({ code: 'custom', path: ['lastWorking'], message: 'The last working time cannot be before the start.' });
+    ctx.addIssue({
+      code: 'custom',
+      path: ['lastWorking'],
+      message: 'The last working time cannot be before the start.',
+    });
   }
   if (d.lastWorking && d.end && d.lastWorking > d.end) {
-    ctx.addIssue({ code: 'custom', path: ['lastWorking'], message: 'The last working time cannot be after the end.' });
+    ctx.addIssue({
+      code: 'custom',
+      path: ['lastWorking'],
+      message: 'The last working time cannot be after the end.',
+    });
   }
 }
 
@@ -143,18 +173,20 @@ export const createDeploymentBodySchema = z
 export type CreateDeploymentBody = z.infer<typeof createDeploymentBodySchema>;
 
 /** Body of `PATCH /api/projects/:slug/deployments/:id`. */
-export const updateDeploymentBodySchema = z.object(deploymentShape).partial().strict().superRefine(checkWindow);
+export const updateDeploymentBodySchema = z
+  .object(deploymentShape)
+  .partial()
+  .strict()
+  .superRefine(checkWindow);
 export type UpdateDeploymentBody = z.infer<typeof updateDeploymentBodySchema>;
 
 /** Body of `POST .../deployments/:id/clock-fix`: the true time read off the reference photo. */
 export const clockFixBodySchema = z
   .object({
     photoId: z.string().regex(/^[0-9a-f]{20}$/, { message: 'photoId is not a valid id.' }),
-    trueTime: z
-      .string()
-      .regex(/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2})?$/, {
-        message: 'Type the time shown as YYYY-MM-DDTHH:MM(:SS), in the camera clock’s time zone.',
-      }),
+    trueTime: z.string().regex(/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2})?$/, {
+      message: 'Type the time shown as YYYY-MM-DDTHH:MM(:SS), in the camera clock’s time zone.',
+    }),
   })
   .strict();
 

@@ -13,6 +13,7 @@ import type {
   UploadFilesTable,
 } from './schema/ingest.table';
 import type { MembershipsTable, ProjectsTable } from './schema/projects.table';
+import type { ProjectSpeciesTable, SightingsTable } from './schema/sort.table';
 import type {
   InvitationsTable,
   PasswordResetsTable,
@@ -37,6 +38,8 @@ export interface Database {
   photos: PhotosTable;
   jobs: JobsTable;
   events: EventsTable;
+  project_species: ProjectSpeciesTable;
+  sightings: SightingsTable;
 }
 
 /** The app's database handle. */

@@ -2,11 +2,13 @@ import { Migrator, type Migration, type MigrationProvider } from 'kysely';
 import type { Db } from './database';
 import * as m0001 from './migrations/0001_foundation';
 import * as m0002 from './migrations/0002_ingest';
+import * as m0003 from './migrations/0003_sort';
 
 /** Migrations in order; imported statically so they work the same under tsx, tests and builds. */
 const MIGRATIONS: Record<string, Migration> = {
   '0001_foundation': m0001,
   '0002_ingest': m0002,
+  '0003_sort': m0003,
 };
 
 class StaticProvider implements MigrationProvider {

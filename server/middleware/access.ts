@@ -10,7 +10,8 @@ export type AccessRule =
   | { kind: 'public' }
   | { kind: 'signedIn' }
   | { kind: 'admin' }
-  | { kind: 'project'; role: ProjectRole; allowAdmin: boolean };
+  | { kind: 'project'; role: ProjectRole; allowAdmin: boolean }
+  | { kind: 'photo'; role: ProjectRole };
 
 /** A middleware that enforces an access rule and says which one (the access test reads it). */
 export type Guard = RequestHandler & { access: AccessRule };

@@ -10,6 +10,7 @@ import type { AppDeps } from '../app';
 import { ApiError } from '../errors/api-error';
 import { projectOf, projectRole, signedIn, userOf } from '../middleware/access';
 import { parseWith } from '../middleware/validate';
+import { regroupProject } from '../services/events.service';
 import { inviteToProject, listInvitations } from '../services/invitations.service';
 import { listMembers, removeMember, setMemberRole } from '../services/members.service';
 import { listProjectsFor, toProjectDetail, updateProject } from '../services/projects.service';
@@ -33,7 +34,11 @@ export function projectsRoutes({ db, config, mailer }: AppDeps): Router {
     async (req, res) => {
       const body = parseWith(updateProjectBodySchema, req.body);
       const { row, role } = projectOf(req);
-      res.json(toProjectDetail(await updateProject(db, row, body, userOf(req).id), role));
+      const updated = await updateProject(db, row, body, userOf(req).id);
+      if (updated.independence_minutes !== row.independence_minutes) {
+        await regroupProject(db, updated.id, updated.independence_minutes);
+      }
+      res.json(toProjectDetail(updated, role));
     },
   );
 

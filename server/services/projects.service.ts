@@ -44,6 +44,7 @@ export function toProjectDetail(row: ProjectsTable, role: ProjectRole | null): P
         : null,
     tileUrl: row.tile_url,
     gpsToleranceM: row.gps_tolerance_m,
+    humanRetentionDays: row.human_retention_days,
     createdAt: row.created_at,
     role,
   };
@@ -81,6 +82,7 @@ const COLUMN: Record<keyof UpdateProjectBody, keyof ProjectsTable> = {
   boundary: 'boundary_geojson',
   tileUrl: 'tile_url',
   gpsToleranceM: 'gps_tolerance_m',
+  humanRetentionDays: 'human_retention_days',
 };
 
 /** Creates a project; the slug must be new. */
@@ -116,6 +118,7 @@ export async function createProject(
     boundary_geojson: input.boundary ? JSON.stringify(input.boundary) : null,
     tile_url: input.tileUrl,
     gps_tolerance_m: input.gpsToleranceM,
+    human_retention_days: input.humanRetentionDays,
   };
   await db.transaction().execute(async (trx) => {
     await trx.insertInto('projects').values(row).execute();

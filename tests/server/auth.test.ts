@@ -165,6 +165,7 @@ describe('sign-in', () => {
       config: ctx.config,
       log: pino({ level: 'silent' }),
       mailer: ctx.mailer,
+      ingest: ctx.ingest,
     });
     const cookie = (await ctx.db.selectFrom('sessions').select('sid').executeTakeFirstOrThrow())
       .sid;

@@ -9,6 +9,7 @@ import { loadConfig, type Config } from '../../server/config';
 import { openDatabase, type Db } from '../../server/db/database';
 import { migrateToLatest } from '../../server/db/migrate';
 import { startFakeSmtp, type FakeSmtp } from '../../server/mail/fake-smtp';
+import { startIngest, type IngestRuntime } from '../../server/ingest-runtime';
 import { createSmtpMailer, type Mailer } from '../../server/mail/mailer';
 import { createProject } from '../../server/services/projects.service';
 import { setMemberRole } from '../../server/services/members.service';
@@ -22,6 +23,7 @@ export interface TestContext {
   config: Config;
   mailer: Mailer;
   smtp: FakeSmtp;
+  ingest: IngestRuntime;
   dir: string;
   close(): Promise<void>;
 }
@@ -38,21 +40,26 @@ export async function createTestContext(env: Record<string, string> = {}): Promi
     LOGIN_RATE_LIMIT: '1000',
     SEED_DEMO: 'false',
     CLIENT_DIST: join(dir, 'no-client'),
+    WORKERS: '1',
     ...env,
   });
   const { db } = openDatabase(config.databasePath);
   await migrateToLatest(db);
   const smtp = await startFakeSmtp(db);
   const mailer = createSmtpMailer(smtp.url, config.mailFrom);
-  const app = createApp({ db, config, log: pino({ level: 'silent' }), mailer });
+  const log = pino({ level: process.env['TEST_LOG_LEVEL'] ?? 'silent' });
+  const ingest = await startIngest(db, config, log);
+  const app = createApp({ db, config, log, mailer, ingest });
   return {
     app,
     db,
     config,
     mailer,
     smtp,
+    ingest,
     dir,
     async close() {
+      await ingest.stop();
       mailer.close();
       await smtp.close();
       await db.destroy();
@@ -147,6 +154,7 @@ export async function seedTeam(db: Db, slug = 'test-survey') {
       boundary: null,
       tileUrl: null,
       gpsToleranceM: 250,
+      humanRetentionDays: null,
     },
     admin.id,
   );

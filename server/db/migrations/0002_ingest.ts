@@ -14,7 +14,9 @@ export async function up(db: Kysely<unknown>): Promise<void> {
   await db.schema
     .createTable('stations')
     .addColumn('id', 'text', (c) => c.primaryKey())
-    .addColumn('project_id', 'text', (c) => c.notNull().references('projects.id').onDelete('cascade'))
+    .addColumn('project_id', 'text', (c) =>
+      c.notNull().references('projects.id').onDelete('cascade'),
+    )
     .addColumn('code', 'text', (c) => c.notNull())
     .addColumn('name', 'text', (c) => c.notNull().defaultTo(''))
     .addColumn('lat', 'real', (c) => c.notNull())
@@ -27,8 +29,12 @@ export async function up(db: Kysely<unknown>): Promise<void> {
   await db.schema
     .createTable('deployments')
     .addColumn('id', 'text', (c) => c.primaryKey())
-    .addColumn('project_id', 'text', (c) => c.notNull().references('projects.id').onDelete('cascade'))
-    .addColumn('station_id', 'text', (c) => c.notNull().references('stations.id').onDelete('restrict'))
+    .addColumn('project_id', 'text', (c) =>
+      c.notNull().references('projects.id').onDelete('cascade'),
+    )
+    .addColumn('station_id', 'text', (c) =>
+      c.notNull().references('stations.id').onDelete('restrict'),
+    )
     .addColumn('camera_label', 'text', (c) => c.notNull())
     .addColumn('camera_serial', 'text')
     .addColumn('start', 'text', (c) => c.notNull())
@@ -43,26 +49,44 @@ export async function up(db: Kysely<unknown>): Promise<void> {
     .addColumn('created_by', 'text', (c) => c.references('users.id').onDelete('set null'))
     .addColumn('created_at', 'text', (c) => c.notNull())
     .execute();
-  await db.schema.createIndex('deployments_station').on('deployments').columns(['station_id', 'start']).execute();
-  await db.schema.createIndex('deployments_project').on('deployments').columns(['project_id', 'start']).execute();
+  await db.schema
+    .createIndex('deployments_station')
+    .on('deployments')
+    .columns(['station_id', 'start'])
+    .execute();
+  await db.schema
+    .createIndex('deployments_project')
+    .on('deployments')
+    .columns(['project_id', 'start'])
+    .execute();
 
   await db.schema
     .createTable('card_uploads')
     .addColumn('id', 'text', (c) => c.primaryKey())
-    .addColumn('project_id', 'text', (c) => c.notNull().references('projects.id').onDelete('cascade'))
-    .addColumn('deployment_id', 'text', (c) => c.notNull().references('deployments.id').onDelete('cascade'))
+    .addColumn('project_id', 'text', (c) =>
+      c.notNull().references('projects.id').onDelete('cascade'),
+    )
+    .addColumn('deployment_id', 'text', (c) =>
+      c.notNull().references('deployments.id').onDelete('cascade'),
+    )
     .addColumn('uploader_id', 'text', (c) => c.references('users.id').onDelete('set null'))
     .addColumn('accepted', 'integer', (c) => c.notNull().defaultTo(0))
     .addColumn('duplicate', 'integer', (c) => c.notNull().defaultTo(0))
     .addColumn('rejected', 'integer', (c) => c.notNull().defaultTo(0))
     .addColumn('created_at', 'text', (c) => c.notNull())
     .execute();
-  await db.schema.createIndex('card_uploads_project').on('card_uploads').columns(['project_id', 'created_at']).execute();
+  await db.schema
+    .createIndex('card_uploads_project')
+    .on('card_uploads')
+    .columns(['project_id', 'created_at'])
+    .execute();
 
   await db.schema
     .createTable('upload_files')
     .addColumn('id', 'text', (c) => c.primaryKey())
-    .addColumn('upload_id', 'text', (c) => c.notNull().references('card_uploads.id').onDelete('cascade'))
+    .addColumn('upload_id', 'text', (c) =>
+      c.notNull().references('card_uploads.id').onDelete('cascade'),
+    )
     .addColumn('seq', 'integer', (c) => c.notNull())
     .addColumn('name', 'text', (c) => c.notNull())
     .addColumn('status', 'text', (c) => c.notNull())
@@ -70,14 +94,24 @@ export async function up(db: Kysely<unknown>): Promise<void> {
     .addColumn('message', 'text')
     .addColumn('photo_id', 'text')
     .execute();
-  await db.schema.createIndex('upload_files_upload').on('upload_files').columns(['upload_id', 'seq']).execute();
+  await db.schema
+    .createIndex('upload_files_upload')
+    .on('upload_files')
+    .columns(['upload_id', 'seq'])
+    .execute();
 
   await db.schema
     .createTable('photos')
     .addColumn('id', 'text', (c) => c.primaryKey())
-    .addColumn('project_id', 'text', (c) => c.notNull().references('projects.id').onDelete('cascade'))
-    .addColumn('deployment_id', 'text', (c) => c.notNull().references('deployments.id').onDelete('cascade'))
-    .addColumn('upload_id', 'text', (c) => c.notNull().references('card_uploads.id').onDelete('cascade'))
+    .addColumn('project_id', 'text', (c) =>
+      c.notNull().references('projects.id').onDelete('cascade'),
+    )
+    .addColumn('deployment_id', 'text', (c) =>
+      c.notNull().references('deployments.id').onDelete('cascade'),
+    )
+    .addColumn('upload_id', 'text', (c) =>
+      c.notNull().references('card_uploads.id').onDelete('cascade'),
+    )
     .addColumn('sha256', 'text', (c) => c.notNull())
     .addColumn('original_name', 'text', (c) => c.notNull())
     .addColumn('stored_path', 'text', (c) => c.notNull())
@@ -100,8 +134,16 @@ export async function up(db: Kysely<unknown>): Promise<void> {
     .addUniqueConstraint('photos_project_sha', ['project_id', 'sha256'])
     .execute();
   await db.schema.createIndex('photos_upload').on('photos').columns(['upload_id', 'id']).execute();
-  await db.schema.createIndex('photos_deployment_time').on('photos').columns(['deployment_id', 'taken_at']).execute();
-  await db.schema.createIndex('photos_event').on('photos').columns(['event_id', 'taken_at']).execute();
+  await db.schema
+    .createIndex('photos_deployment_time')
+    .on('photos')
+    .columns(['deployment_id', 'taken_at'])
+    .execute();
+  await db.schema
+    .createIndex('photos_event')
+    .on('photos')
+    .columns(['event_id', 'taken_at'])
+    .execute();
   await db.schema.createIndex('photos_sha').on('photos').column('sha256').execute();
 
   await db.schema
@@ -123,8 +165,12 @@ export async function up(db: Kysely<unknown>): Promise<void> {
   await db.schema
     .createTable('events')
     .addColumn('id', 'text', (c) => c.primaryKey())
-    .addColumn('project_id', 'text', (c) => c.notNull().references('projects.id').onDelete('cascade'))
-    .addColumn('station_id', 'text', (c) => c.notNull().references('stations.id').onDelete('cascade'))
+    .addColumn('project_id', 'text', (c) =>
+      c.notNull().references('projects.id').onDelete('cascade'),
+    )
+    .addColumn('station_id', 'text', (c) =>
+      c.notNull().references('stations.id').onDelete('cascade'),
+    )
     .addColumn('start', 'text', (c) => c.notNull())
     .addColumn('end', 'text', (c) => c.notNull())
     .addColumn('photo_count', 'integer', (c) => c.notNull())
@@ -136,7 +182,15 @@ export async function up(db: Kysely<unknown>): Promise<void> {
 
 /** Drops the ingest tables and columns. */
 export async function down(db: Kysely<unknown>): Promise<void> {
-  for (const table of ['events', 'jobs', 'photos', 'upload_files', 'card_uploads', 'deployments', 'stations']) {
+  for (const table of [
+    'events',
+    'jobs',
+    'photos',
+    'upload_files',
+    'card_uploads',
+    'deployments',
+    'stations',
+  ]) {
     await db.schema.dropTable(table).ifExists().execute();
   }
   for (const column of ['gps_tolerance_m', 'tile_url', 'boundary_geojson']) {

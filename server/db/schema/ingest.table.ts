@@ -105,4 +105,12 @@ export interface EventsTable {
   end: string;
   photo_count: number;
   created_at: string;
+  label: string | null;
+  species: string | null;
+  animal_count: number | null;
+  sorted_by: string | null;
+  sorted_at: string | null;
+  label_version: number;
+  lease_holder: string | null;
+  lease_until: string | null;
 }

@@ -19,6 +19,7 @@ export interface ProjectsTable {
   boundary_geojson: string | null;
   tile_url: string | null;
   gps_tolerance_m: number;
+  human_retention_days: number | null;
 }
 
 /** A user's role in one project. */

@@ -1,4 +1,5 @@
 /** Normal, Student t, chi-square and beta distribution functions and quantiles. */
+/* eslint-disable no-loss-of-precision -- published algorithm coefficients are quoted digit for digit */
 import { betaInc, gammaP, gammaQ } from './special';
 import { brentRoot } from './roots';
 
@@ -13,7 +14,6 @@ export function normalCdf(x: number): number {
   return 0.5 * gammaQ(0.5, y * y);
 }
 
-/* eslint-disable no-loss-of-precision -- the AS 241 coefficients are kept digit for digit as published. */
 /** Standard normal quantile Φ⁻¹(p) (Wichura 1988, AS 241, about 16 digits). */
 export function normalQuantile(p: number): number {
   if (p <= 0) return -Infinity;
@@ -105,7 +105,6 @@ export function normalQuantile(p: number): number {
   }
   return q < 0 ? -value : value;
 }
-/* eslint-enable no-loss-of-precision */
 
 /** Student t cumulative distribution with `df` degrees of freedom. */
 export function tCdf(x: number, df: number): number {

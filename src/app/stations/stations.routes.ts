@@ -1,17 +1,22 @@
 import type { Routes } from '@angular/router';
 import { projectRoleGuard } from '../core/guards';
-import { AreaPlaceholder } from '../ui/area-placeholder';
 
 export const STATIONS_ROUTES: Routes = [
   {
     path: '',
     canActivate: [projectRoleGuard('volunteer')],
-    component: AreaPlaceholder,
-    data: {
-      title: 'Stations',
-      icon: 'location_on',
-      message:
-        'Stations and deployments are not in this version of Maculo yet. Nothing has been recorded here.',
-    },
+    children: [
+      { path: '', loadComponent: () => import('./stations-page').then((m) => m.StationsPage) },
+      {
+        path: 'deployments/:deploymentId',
+        title: 'Deployment · Maculo',
+        loadComponent: () => import('./deployment-page').then((m) => m.DeploymentPage),
+      },
+      {
+        path: ':stationId',
+        title: 'Station · Maculo',
+        loadComponent: () => import('./station-page').then((m) => m.StationPage),
+      },
+    ],
   },
 ];

@@ -1,17 +1,22 @@
 import type { Routes } from '@angular/router';
 import { projectRoleGuard } from '../core/guards';
-import { AreaPlaceholder } from '../ui/area-placeholder';
 
 export const UPLOADS_ROUTES: Routes = [
   {
     path: '',
     canActivate: [projectRoleGuard('volunteer')],
-    component: AreaPlaceholder,
-    data: {
-      title: 'Card uploads',
-      icon: 'sd_card',
-      message:
-        'Uploading memory cards is not in this version of Maculo yet. No photos have been uploaded.',
-    },
+    children: [
+      { path: '', loadComponent: () => import('./uploads-page').then((m) => m.UploadsPage) },
+      {
+        path: 'new',
+        title: 'Upload a card · Maculo',
+        loadComponent: () => import('./new-upload-page').then((m) => m.NewUploadPage),
+      },
+      {
+        path: ':uploadId',
+        title: 'Card · Maculo',
+        loadComponent: () => import('./upload-page').then((m) => m.UploadPage),
+      },
+    ],
   },
 ];
