@@ -15,6 +15,7 @@ import type { Mailer } from './mail/mailer';
 import { csrfProtection, xsrfCookie } from './middleware/csrf';
 import { adminRoutes } from './routes/admin.routes';
 import { authRoutes } from './routes/auth.routes';
+import { estimateRoutes } from './routes/estimate.routes';
 import { healthRoutes } from './routes/health.routes';
 import { deploymentsRoutes } from './routes/deployments.routes';
 import { photosRoutes } from './routes/photos.routes';
@@ -93,6 +94,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(uploadsRoutes(deps));
   api.use(photosRoutes(deps));
   api.use(sortRoutes(deps));
+  api.use(estimateRoutes(deps));
   api.use(apiNotFound);
   app.use('/api', api);
 

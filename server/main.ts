@@ -7,6 +7,7 @@ import { migrateToLatest } from './db/migrate';
 import { startIngest } from './ingest-runtime';
 import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp';
 import { createSmtpMailer } from './mail/mailer';
+import { closeSecrPool } from './workers/secr-pool';
 
 /** Starts Maculo: config, database and migrations, mail, demo data, HTTP. */
 async function main(): Promise<void> {
@@ -38,6 +39,7 @@ async function main(): Promise<void> {
   const server = app.listen(config.port, config.host, () => {
     log.info(`Maculo is running on ${config.publicUrl}`);
   });
+  server.on('close', () => void closeSecrPool());
 
   const shutdown = (signal: string) => {
     log.info({ signal }, 'shutting down');

@@ -5,3 +5,7 @@ class ResizeObserverStub {
   disconnect(): void {}
 }
 (globalThis as { ResizeObserver?: unknown }).ResizeObserver ??= ResizeObserverStub;
+
+// jsdom has no canvas; ECharts then measures text by its own estimate instead of logging errors.
+HTMLCanvasElement.prototype.getContext = (() =>
+  null) as typeof HTMLCanvasElement.prototype.getContext;

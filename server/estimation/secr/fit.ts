@@ -35,10 +35,15 @@ interface Optimum {
   inverseHessian: number[][];
 }
 
-function optimise(lik: SecrLikelihood, starts: number[][], inverseHessian?: number[][]): Optimum {
+function optimise(
+  lik: SecrLikelihood,
+  starts: number[][],
+  inverseHessian?: number[][],
+  onStartDone?: (done: number, of: number) => void,
+): Optimum {
   const objective = cachedObjective((th) => lik.concentrated(th));
   let best: Optimum = { theta: starts[0], logLik: -Infinity, converged: false, inverseHessian: [] };
-  for (const s of starts) {
+  for (const [i, s] of starts.entries()) {
     const r = bfgs(objective, s, {
       maxIterations: 150,
       gradientTolerance: 1e-8,
@@ -53,6 +58,7 @@ function optimise(lik: SecrLikelihood, starts: number[][], inverseHessian?: numb
         inverseHessian: r.inverseHessian,
       };
     }
+    onStartDone?.(i + 1, starts.length);
   }
   return best;
 }
@@ -67,17 +73,22 @@ function multiStart(
   mask: HabitatMask,
   lik: SecrLikelihood,
   sigma0: number,
+  report: SecrProgress,
 ): Optimum {
   const starts = startValues(input.detector, sigma0);
   const coarseSpacing = 2 * mask.spacing;
+  // Starts take most of the fitting time, so progress moves once per start (0.05 → 0.6).
+  const perStart = (share: number) => (done: number, of: number) =>
+    report({ stage: `fitting (start ${done} of ${of})`, fraction: 0.05 + (share * done) / of });
   // Cells up to about σ across still place the optimum well enough to choose among starts.
-  if (coarseSpacing > 0.8 * sigma0) return optimise(lik, starts);
+  if (coarseSpacing > 0.8 * sigma0) return optimise(lik, starts, undefined, perStart(0.55));
   const coarse = new SecrLikelihood(
     data,
     buildMask(input.traps, coarseSpacing, mask.buffer),
     input.traps,
   );
-  const rough = optimise(coarse, starts);
+  const rough = optimise(coarse, starts, undefined, perStart(0.35));
+  report({ stage: 'refining on the full mask', fraction: 0.4 });
   return optimise(lik, [rough.theta], rough.inverseHessian);
 }
 
@@ -133,7 +144,7 @@ export function fitSecr(input: SecrInput, onProgress?: SecrProgress): SecrResult
   const mask = buildMask(input.traps, spacing, buffer);
   const lik = new SecrLikelihood(data, mask, input.traps);
   report({ stage: 'fitting', fraction: 0.05 });
-  const best = multiStart(input, data, mask, lik, sigma0);
+  const best = multiStart(input, data, mask, lik, sigma0, report);
   report({ stage: 'standard errors', fraction: 0.7 });
   const result = summariseFit(input, data, lik, mask, best, warnings);
   report({ stage: 'buffer check', fraction: 0.8 });
@@ -230,8 +241,18 @@ function bufferCheck(
   best: Optimum,
   D: number,
   warnings: string[],
-): { buffer: number; D: number; relativeChange: number } {
-  const wider = buildMask(input.traps, mask.spacing, 1.5 * mask.buffer);
+): { buffer: number; D: number; relativeChange: number } | null {
+  let wider: HabitatMask;
+  try {
+    wider = buildMask(input.traps, mask.spacing, 1.5 * mask.buffer);
+  } catch (err) {
+    if (!(err instanceof RangeError)) throw err;
+    // A fine mask can fit under the point cap while its 1.5 × wider twin does not: say so, fit on.
+    warnings.push(
+      `The buffer-sensitivity check was skipped: a mask with a ${(1.5 * mask.buffer).toFixed(0)} m buffer at ${mask.spacing.toFixed(0)} m spacing would be too large. Refit with a coarser spacing to check the buffer.`,
+    );
+    return null;
+  }
   const lik = new SecrLikelihood(data, wider, input.traps);
   const refit = optimise(lik, [best.theta], best.inverseHessian);
   const D2 = data.animals.length / lik.concentrated(refit.theta).esa;

@@ -1,16 +1,41 @@
 import type { Routes } from '@angular/router';
 import { projectRoleGuard } from '../core/guards';
-import { AreaPlaceholder } from '../ui/area-placeholder';
+import { provideEstimateCharts } from './estimate-charts';
+import { EstimatesLayout } from './estimates-layout';
 
 export const ESTIMATES_ROUTES: Routes = [
   {
     path: '',
     canActivate: [projectRoleGuard('ecologist')],
-    component: AreaPlaceholder,
-    data: {
-      title: 'Estimates',
-      icon: 'insights',
-      message: 'Abundance and density estimates are not in this version of Maculo yet.',
-    },
+    component: EstimatesLayout,
+    providers: [provideEstimateCharts()],
+    children: [
+      { path: '', pathMatch: 'full', redirectTo: 'histories' },
+      {
+        path: 'histories',
+        title: 'Capture histories · Estimates · Maculo',
+        loadComponent: () => import('./histories-calculator').then((m) => m.HistoriesCalculator),
+      },
+      {
+        path: 'secr',
+        title: 'SECR density · Estimates · Maculo',
+        loadComponent: () => import('./secr-calculator').then((m) => m.SecrCalculator),
+      },
+      {
+        path: 'two-samples',
+        title: 'Two samples · Estimates · Maculo',
+        loadComponent: () => import('./two-sample-calculator').then((m) => m.TwoSampleCalculator),
+      },
+      {
+        path: 'plots',
+        title: 'Plot counts · Estimates · Maculo',
+        loadComponent: () => import('./plots-calculator').then((m) => m.PlotsCalculator),
+      },
+      {
+        path: 'catalogue',
+        title: "From this project's catalogue · Estimates · Maculo",
+        loadComponent: () => import('./catalogue-estimates').then((m) => m.CatalogueEstimates),
+      },
+    ],
   },
 ];
