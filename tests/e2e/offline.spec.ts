@@ -12,6 +12,8 @@ const IDENTIFIERS = [
   /^http:\/\/www\.w3\.org\//,
   /^https?:\/\/json-schema\.org\//,
   /^https:\/\/angular\.dev\//,
+  // Leaflet's attribution link text; the map's attribution control is off and nothing is fetched.
+  /^https:\/\/leafletjs\.com\/?$/,
 ];
 
 function files(dir: string): string[] {
