@@ -1,7 +1,7 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import type { EChartsOption } from 'echarts';
 import { NgxEchartsDirective } from 'ngx-echarts';
-import { CHART_COLOURS, CHART_INIT, CHART_TEXT } from './estimate-charts';
+import { CHART_COLOURS, CHART_INIT, CHART_TEXT } from '../ui/charts';
 import { formatNumber } from './estimate-format';
 
 /** Points on the half-normal curve h·exp(−d²/(2σ²)) from d = 0 to 4σ. */

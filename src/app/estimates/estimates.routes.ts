@@ -1,6 +1,6 @@
 import type { Routes } from '@angular/router';
 import { projectRoleGuard } from '../core/guards';
-import { provideEstimateCharts } from './estimate-charts';
+import { provideCharts } from '../ui/charts';
 import { EstimatesLayout } from './estimates-layout';
 
 export const ESTIMATES_ROUTES: Routes = [
@@ -8,7 +8,7 @@ export const ESTIMATES_ROUTES: Routes = [
     path: '',
     canActivate: [projectRoleGuard('ecologist')],
     component: EstimatesLayout,
-    providers: [provideEstimateCharts()],
+    providers: [provideCharts()],
     children: [
       { path: '', pathMatch: 'full', redirectTo: 'histories' },
       {

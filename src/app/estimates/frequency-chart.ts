@@ -1,7 +1,7 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import type { EChartsOption } from 'echarts';
 import { NgxEchartsDirective } from 'ngx-echarts';
-import { CHART_COLOURS, CHART_INIT, CHART_TEXT } from './estimate-charts';
+import { CHART_COLOURS, CHART_INIT, CHART_TEXT } from '../ui/charts';
 
 /** Capture frequencies: how many animals were caught exactly k times, k = 1..t. */
 @Component({

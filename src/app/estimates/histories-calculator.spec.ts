@@ -3,7 +3,7 @@ import { HttpTestingController, provideHttpClientTesting } from '@angular/common
 import { TestBed } from '@angular/core/testing';
 import type { ClosedModelName, ModelEstimate } from '../../../shared/estimate';
 import type { ClosedResponse } from '../../../shared/estimate-api';
-import { provideEstimateCharts } from './estimate-charts';
+import { provideCharts } from '../ui/charts';
 import { HistoriesCalculator } from './histories-calculator';
 
 const model = <M extends ClosedModelName>(
@@ -67,7 +67,7 @@ describe('HistoriesCalculator', () => {
   beforeEach(() => {
     TestBed.configureTestingModule({
       imports: [HistoriesCalculator],
-      providers: [provideHttpClient(), provideHttpClientTesting(), provideEstimateCharts()],
+      providers: [provideHttpClient(), provideHttpClientTesting(), provideCharts()],
     });
   });
   afterEach(() => TestBed.inject(HttpTestingController).verify());

@@ -7,7 +7,7 @@ import type {
 } from 'echarts';
 import { NgxEchartsDirective } from 'ngx-echarts';
 import type { Interval } from '../../../shared/estimate';
-import { CHART_COLOURS, CHART_INIT, CHART_TEXT } from './estimate-charts';
+import { CHART_COLOURS, CHART_INIT, CHART_TEXT } from '../ui/charts';
 import { formatInterval, formatNumber } from './estimate-format';
 
 /** One model's point estimate and interval, as the chart draws it. */

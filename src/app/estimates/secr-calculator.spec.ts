@@ -2,7 +2,7 @@ import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import type { SecrJobView, SecrResponse } from '../../../shared/estimate-api';
-import { provideEstimateCharts } from './estimate-charts';
+import { provideCharts } from '../ui/charts';
 import { SecrCalculator } from './secr-calculator';
 
 // A response shaped like the server's; the numbers are made up for the screen, not a fit.
@@ -30,7 +30,7 @@ describe('SecrCalculator', () => {
   beforeEach(() => {
     TestBed.configureTestingModule({
       imports: [SecrCalculator],
-      providers: [provideHttpClient(), provideHttpClientTesting(), provideEstimateCharts()],
+      providers: [provideHttpClient(), provideHttpClientTesting(), provideCharts()],
     });
   });
   afterEach(() => TestBed.inject(HttpTestingController).verify());

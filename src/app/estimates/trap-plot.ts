@@ -1,7 +1,7 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import type { EChartsOption } from 'echarts';
 import { NgxEchartsDirective } from 'ngx-echarts';
-import { CHART_COLOURS, CHART_INIT, CHART_TEXT } from './estimate-charts';
+import { CHART_COLOURS, CHART_INIT, CHART_TEXT } from '../ui/charts';
 import type { CaptureRow, TrapRow } from './estimate-input';
 
 /** Per trap: animals detected there; per animal: its traps in order of first detection. */

@@ -1,16 +1,14 @@
 import type { Routes } from '@angular/router';
 import { projectRoleGuard } from '../core/guards';
-import { AreaPlaceholder } from '../ui/area-placeholder';
 
 export const SORT_ROUTES: Routes = [
   {
     path: '',
     canActivate: [projectRoleGuard('reviewer')],
-    component: AreaPlaceholder,
-    data: {
-      title: 'Sort',
-      icon: 'filter_list',
-      message: 'Sorting events is not in this version of Maculo yet. There are no events to sort.',
-    },
+    children: [
+      { path: '', loadComponent: () => import('./sort-page').then((m) => m.SortPage) },
+      { path: 'batch', title: 'Batch sort · Maculo', loadComponent: () => import('./batch-page').then((m) => m.BatchPage) },
+      { path: 'sorted', title: 'Sorted events · Maculo', loadComponent: () => import('./sorted-page').then((m) => m.SortedPage) },
+    ],
   },
 ];

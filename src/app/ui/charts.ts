@@ -1,5 +1,5 @@
 /**
- * The ECharts pieces the Estimates area draws with, registered once: bar, scatter, line and custom
+ * The ECharts pieces Maculo draws with, registered once: bar, scatter, line and custom
  * (error bars) series, grid, tooltip and legend, and the SVG renderer (crisp, and it runs in jsdom).
  */
 import { BarChart, CustomChart, LineChart, ScatterChart } from 'echarts/charts';
@@ -26,12 +26,12 @@ echarts.use([
   SVGRenderer,
 ]);
 
-/** Provider for the Estimates routes: ngx-echarts with the pieces registered above. */
-export function provideEstimateCharts(): Provider {
+/** Provider for routes that draw charts: ngx-echarts with the pieces registered above. */
+export function provideCharts(): Provider {
   return provideEchartsCore({ echarts });
 }
 
-/** Renderer options every Estimates chart uses. */
+/** Renderer options every chart uses. */
 export const CHART_INIT = { renderer: 'svg' } as const;
 
 /** Mid-tone colours of the app's palettes (primary 50, tertiary 50, neutral 50, error 50): they read on light and dark surfaces alike. */
