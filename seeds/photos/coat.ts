@@ -3,7 +3,15 @@
  * from independent streams (left and right differ, as real flanks do) plus a few visible traits
  * that stay the same in every photo and that a reviewer could type as notes.
  */
-import { makeRing, makeRosette, makeScar, makeSpot, MarkGrid, type Mark } from './coat-marks';
+import {
+  makeRing,
+  makeRosette,
+  makeScar,
+  makeSpot,
+  MarkGrid,
+  type Ink,
+  type Mark,
+} from './coat-marks';
 import { insideTrunk, LIMBS, TAIL } from './leopard-body';
 import type { Rgb } from './raster';
 import { hashString, Rng, rngFor } from './random';
@@ -124,6 +132,13 @@ export function flankCoat(ind: Individual, flank: Flank): FlankCoat {
   if (coatCache.size > 64) coatCache.delete(coatCache.keys().next().value ?? '');
   coatCache.set(key, coat);
   return coat;
+}
+
+/** Coat ink on the trunk at body coordinates (units of body length), hard-edged; for checks. */
+export function trunkInk(ind: Individual, flank: Flank, u: number, v: number): Ink {
+  const grid = flankCoat(ind, flank).parts.get('trunk');
+  const ink: Ink = { black: 0, centre: 0, scar: 0 };
+  return grid ? grid.inkAt(u, v, 1e6, ink) : ink;
 }
 
 /** Accepted marks with their extents, bucketed for quick spacing checks. */

@@ -2,6 +2,7 @@
  * Synthetic trail-camera photos for Maculo's demo, tests and benchmarks: painted by our own code,
  * deterministic for a spec, with EXIF and full ground truth.
  */
+import Piscina from 'piscina';
 import { makeIndividual, describeIndividual } from './coat';
 import { buildExif, insertExif } from './exif';
 import { encodeJpeg } from './jpeg';
@@ -85,4 +86,61 @@ export async function renderPhoto(spec: PhotoSpec): Promise<RenderedPhoto> {
     bandHeight: scene.bandHeight,
   };
   return { jpeg, truth };
+}
+
+/** Options for rendering many photos. */
+export interface RenderSetOptions {
+  /** Worker threads; 1 (the default) renders in this thread. */
+  readonly concurrency?: number;
+  /** Called as each photo is ready (in completion order). */
+  readonly onPhoto?: (index: number, photo: RenderedPhoto) => void | Promise<void>;
+}
+
+function isRendered(value: unknown): value is { jpeg: Uint8Array; truth: PhotoTruth } {
+  return (
+    typeof value === 'object' &&
+    value !== null &&
+    'jpeg' in value &&
+    value.jpeg instanceof Uint8Array
+  );
+}
+
+/** Renders many specs, in worker threads when concurrency > 1; results keep the specs' order. */
+export async function renderSet(
+  specs: readonly PhotoSpec[],
+  options: RenderSetOptions = {},
+): Promise<RenderedPhoto[]> {
+  const threads = Math.max(1, Math.floor(options.concurrency ?? 1));
+  const out: RenderedPhoto[] = new Array<RenderedPhoto>(specs.length);
+  if (threads === 1) {
+    for (let i = 0; i < specs.length; i++) {
+      out[i] = await renderPhoto(specs[i]);
+      await options.onPhoto?.(i, out[i]);
+    }
+    return out;
+  }
+  const pool = new Piscina({
+    filename: new URL('./render-worker.mjs', import.meta.url).href,
+    minThreads: threads,
+    maxThreads: threads,
+  });
+  try {
+    await Promise.all(
+      specs.map(async (spec, i) => {
+        const result: unknown = await pool.run(spec);
+        if (!isRendered(result)) throw new Error(`worker returned no photo for spec ${i}`);
+        // Buffers arrive as plain Uint8Arrays after the thread hop.
+        const jpeg = Buffer.from(
+          result.jpeg.buffer,
+          result.jpeg.byteOffset,
+          result.jpeg.byteLength,
+        );
+        out[i] = { jpeg, truth: result.truth };
+        await options.onPhoto?.(i, out[i]);
+      }),
+    );
+  } finally {
+    await pool.destroy();
+  }
+  return out;
 }

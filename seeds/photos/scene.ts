@@ -109,11 +109,11 @@ export function paintScene(spec: PhotoSpec): SceneResult {
   }
   const wind = rng.fork('wind');
   const drawables = sceneDrawables(look, cam, light, wind.next(), v.wind);
-  const behind = subject ? drawables.filter((d) => d.z > z) : drawables;
-  for (const d of behind) d.draw(img);
+  for (const d of drawables) if (d.z > z) d.draw(img);
   if (layer) compositeLayer(img, layer, light.gain(z));
   if (subject && h && spec.subject.kind === 'setup') drawBoardText(img, h, spec.subject.lines);
-  if (subject) for (const d of drawables.filter((d) => d.z <= z)) d.draw(img);
+  // Scenery nearer than the subject distance (even in a blank) can be left out for clean views.
+  if (spec.foreground !== false) for (const d of drawables) if (d.z <= z) d.draw(img);
   const occludedFraction =
     layer && v.occlusion > 0
       ? paintOccluder(img, layer, v.occlusion, rng.fork('occluder').int(0, 2 ** 30), look, light)

@@ -87,6 +87,11 @@ export interface PhotoSpec {
   readonly quality?: number;
   /** Text at the left of the data band (default: station and camera). False: no band. */
   readonly band?: string | false;
+  /**
+   * Draw scenery nearer than variation.distanceM (default true); false gives clean reference
+   * views, and a blank with the same distance shows exactly the scenery behind such a subject.
+   */
+  readonly foreground?: boolean;
   /** Air temperature shown in the band, °C (default drawn from the seed). */
   readonly temperatureC?: number;
 }

@@ -124,8 +124,8 @@ function drawBush(
     shade(foliageDark, g * 0.5),
     0.6,
   );
-  const leaves = Math.round(70 + o.size * 120);
-  const leafR = Math.max(1.2, 0.05 * ppm * rng.range(0.8, 1.3));
+  const leaves = Math.round(80 + o.size * 160);
+  const leafR = Math.max(1.2, 0.038 * ppm * rng.range(0.8, 1.3));
   for (let i = 0; i < leaves; i++) {
     // Leaves fill a dome; upper leaves catch more light.
     const a = rng.range(0, Math.PI);
