@@ -51,13 +51,14 @@ export async function renderPhoto(spec: PhotoSpec): Promise<RenderedPhoto> {
   checkSpec(spec);
   const scene = paintScene(spec);
   const quality = spec.quality ?? 85;
-  let jpeg = await encodeJpeg(scene.img, quality);
+  const encoder = spec.encoder ?? 'baseline';
+  let jpeg = await encodeJpeg(scene.img, quality, encoder);
   if (spec.exif) {
     let thumb: Buffer | undefined;
     if (spec.exif.thumbnail !== false) {
       const tw = 160;
       const th = Math.max(1, Math.round((tw * spec.height) / spec.width));
-      thumb = await encodeJpeg(downscale(scene.img, tw, th), 75);
+      thumb = await encodeJpeg(downscale(scene.img, tw, th), 75, encoder);
     }
     jpeg = insertExif(jpeg, buildExif(spec.exif, spec.width, spec.height, thumb));
   }
