@@ -42,20 +42,19 @@ export function background(look: StationLook, cam: Camera, lighting: Lighting): 
   if (img) {
     cache.delete(key);
   } else {
-    // Large frames get a background painted at ≤ 1536 px and enlarged, as many trail cameras
-    // interpolate their sensor up to the nominal size anyway; objects and subject stay sharp.
-    const s = Math.min(1, 1536 / cam.width);
-    if (s < 1) {
-      const small = {
-        ...cam,
-        width: Math.round(cam.width * s),
-        height: Math.round(cam.height * s),
-      };
-      const scaled = { ...small, f: cam.f * s, cx: cam.cx * s, cy: cam.cy * s };
-      img = upscale(paintBackground(look, scaled, sceneLight(lighting)), cam.width, cam.height);
-    } else {
-      img = paintBackground(look, cam, sceneLight(lighting));
-    }
+    // The background is painted at half size (at most 1536 px wide) and enlarged: it is smooth
+    // and distant, and many trail cameras interpolate their sensor up anyway. Fine ground grain
+    // is added at full size; objects, grass and the subject are drawn sharp on top.
+    const s = Math.min(0.5, 1536 / cam.width);
+    const small = {
+      ...cam,
+      width: Math.max(2, Math.round(cam.width * s)),
+      height: Math.max(2, Math.round(cam.height * s)),
+    };
+    const scaled = { ...small, f: cam.f * s, cx: cam.cx * s, cy: cam.cy * s };
+    const light = sceneLight(lighting);
+    img = upscale(paintBackground(look, scaled, light), cam.width, cam.height);
+    addGroundGrain(img, look, cam, light);
   }
   cache.set(key, img);
   let bytes = 0;
@@ -207,15 +206,35 @@ function paintGround(
     const gz = t * (yn * sp + cp);
     const h = light.infrared ? 0 : Math.min(0.5, gz / 90);
     const k = light.gain(gz);
-    const grainAmp = 18 * Math.min(1, 4 / gz);
     let i = y * cam.width * 4;
     for (let x = 0; x < cam.width; x++, i += 4) {
       const gx = (t * (x - cam.cx)) / cam.f;
       groundColour(look, gx, gz, c);
-      const grain = (hashNoise(x, y, look.seed) - 0.5) * grainAmp;
-      d[i] = (c[0] + grain + (haze[0] - c[0]) * h) * k;
-      d[i + 1] = (c[1] + grain + (haze[1] - c[1]) * h) * k;
-      d[i + 2] = (c[2] + grain + (haze[2] - c[2]) * h) * k;
+      d[i] = (c[0] + (haze[0] - c[0]) * h) * k;
+      d[i + 1] = (c[1] + (haze[1] - c[1]) * h) * k;
+      d[i + 2] = (c[2] + (haze[2] - c[2]) * h) * k;
+    }
+  }
+}
+
+/** Fine grit on the ground, at full resolution, fading with distance. */
+function addGroundGrain(img: Raster, look: StationLook, cam: Camera, light: SceneLight): void {
+  const cp = Math.cos(cam.pitch);
+  const sp = Math.sin(cam.pitch);
+  const d = img.data;
+  for (let y = Math.max(0, Math.ceil(horizonY(cam))); y < cam.height; y++) {
+    const yn = -(y - cam.cy) / cam.f;
+    const yw = yn * cp - sp;
+    if (yw >= -1e-6) continue;
+    const gz = (-cam.heightM / yw) * (yn * sp + cp);
+    if (gz > look.treeLineZ) continue;
+    const amp = 18 * Math.min(1, 4 / gz) * light.gain(gz);
+    let i = y * cam.width * 4;
+    for (let x = 0; x < cam.width; x++, i += 4) {
+      const g = (hashNoise(x, y, look.seed) - 0.5) * amp;
+      d[i] += g;
+      d[i + 1] += g;
+      d[i + 2] += g;
     }
   }
 }

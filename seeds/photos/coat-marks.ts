@@ -194,6 +194,9 @@ export function inkOf(m: Mark, x: number, y: number, px: number, ink: Ink): void
     ink.black = Math.max(ink.black, cover(along, px));
     return;
   }
+  // Cheap rejection before any square root: the mark reaches at most 1.6 r·max(elong, 1/elong).
+  const reach = m.r * 1.6 * (m.elong > 1 ? m.elong : 1 / m.elong);
+  if (dx * dx + dy * dy > reach * reach) return;
   const u = (dx * m.ca + dy * m.sa) / m.elong;
   const v = (-dx * m.sa + dy * m.ca) * m.elong;
   const rho = Math.sqrt(u * u + v * v) / m.r;

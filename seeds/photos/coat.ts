@@ -217,7 +217,7 @@ function trunkCoat(rng: Rng, ind: Individual, flank: Flank): MarkGrid {
     );
     s.marks.push(scar);
   }
-  return new MarkGrid(s.marks, -0.15, 0.1, 1.15, 0.7, 0.04);
+  return new MarkGrid(s.marks, -0.15, 0.1, 1.15, 0.7, 0.02);
 }
 
 /** A big broken ring of heavy blotches on the shoulder, easy to spot and to describe. */

@@ -37,9 +37,17 @@ class CoarseField {
   private readonly ix: Int32Array;
   private readonly fx: Float32Array;
 
-  /** Fills `row` with the field along image row y. */
+  private rowY = -1;
+
+  /**
+   * The field along image row y. Rows are refreshed every 4 image rows: the field changes over
+   * tens of pixels, and evaluating it per row would cost as much as the pass it modulates.
+   */
   fillRow(y: number): Float32Array {
-    const gy = y / this.step;
+    const yq = y - (y & 3);
+    if (yq === this.rowY) return this.row;
+    this.rowY = yq;
+    const gy = yq / this.step;
     const j = Math.floor(gy);
     const fy = gy - j;
     const { grid, gw, row, ix } = this;
@@ -68,7 +76,8 @@ function grainRow(y: number, seed: number): number {
 
 /**
  * Daylight: exposure, colour temperature (warm = low sun), soft dappled shade over the lower part
- * of the frame, a mild lens vignette and faint sensor grain.
+ * of the frame and a mild lens vignette. (Daylight sensor noise is too faint to be worth its cost
+ * in painting and in JPEG size; the ground already carries grit.)
  */
 export function applyDaylight(
   img: Raster,
@@ -94,15 +103,12 @@ export function applyDaylight(
   const kb = exposure * (1 - warmth * 0.12);
   for (let y = 0; y < height; y++) {
     const row = field.fillRow(y);
-    const gy = grainRow(y, seed);
-    const gx0 = seed & 255;
     let i = y * width * 4;
     for (let x = 0; x < width; x++, i += 4) {
       const v = row[x];
-      const g = GRAIN[gy | ((x + gx0) & 255)] * 4;
-      data[i] = data[i] * kr * v + g;
-      data[i + 1] = data[i + 1] * kg * v + g;
-      data[i + 2] = data[i + 2] * kb * v + g;
+      data[i] = data[i] * kr * v;
+      data[i + 1] = data[i + 1] * kg * v;
+      data[i + 2] = data[i + 2] * kb * v;
     }
   }
 }

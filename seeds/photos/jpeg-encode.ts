@@ -61,6 +61,8 @@ type Coded = ReturnType<typeof codes>;
 
 interface Planes {
   blocks: Int16Array;
+  /** Zig-zag index of the last non-zero coefficient of each block (0 if none). */
+  last: Uint8Array;
   count: number;
 }
 
@@ -74,19 +76,23 @@ function block(
   q: Float32Array,
   out: Int16Array,
   at: number,
-): void {
+): number {
   for (let r = 0; r < 8; r++) {
     const o = off + r * stride;
     for (let c = 0; c < 8; c++) tmp[r * 8 + c] = src[o + c];
   }
   fdct(tmp);
+  let last = 0;
   for (let k = 0; k < 64; k++) {
     // Round half up via an offset (the values stay far inside ±16384).
     const r = ((tmp[ZZ[k]] * q[k] + 16384.5) | 0) - 16384;
     // AC magnitudes stay within 10 bits and DC within 11, as baseline Huffman coding requires.
     const lim = k === 0 ? 2047 : 1023;
-    out[at + k] = r > lim ? lim : r < -lim ? -lim : r;
+    const v = r > lim ? lim : r < -lim ? -lim : r;
+    out[at + k] = v;
+    if (v !== 0) last = k;
   }
+  return last;
 }
 
 /** Quantised coefficients (zig-zag order) of every block, in MCU order: Y×4, Cb, Cr. */
@@ -96,6 +102,7 @@ function quantise(img: Raster, quality: number): Planes {
   const mcuY = Math.ceil(height / 16);
   const pw = mcuX * 16;
   const blocks = new Int16Array(mcuX * mcuY * 6 * 64);
+  const last = new Uint8Array(mcuX * mcuY * 6);
   const qy = divisors(scaledTable(LUMA, quality));
   const qc = divisors(scaledTable(CHROMA, quality));
   // One strip of 16 image rows at a time, edges replicated to whole MCUs.
@@ -105,36 +112,61 @@ function quantise(img: Raster, quality: number): Planes {
   const hw = pw / 2;
   let at = 0;
   for (let my = 0; my < mcuY; my++) {
-    cb.fill(0);
-    cr.fill(0);
-    for (let r = 0; r < 16; r++) {
-      const sy = Math.min(height - 1, my * 16 + r);
-      const row = sy * width * 4;
+    // Two rows and two columns at a time: four luma samples and one averaged chroma pair.
+    for (let r = 0; r < 16; r += 2) {
+      const row0 = Math.min(height - 1, my * 16 + r) * width * 4;
+      const row1 = Math.min(height - 1, my * 16 + r + 1) * width * 4;
       const yo = r * pw;
       const co = (r >> 1) * hw;
-      for (let x = 0; x < pw; x++) {
-        const i = row + (x < width ? x : width - 1) * 4;
-        const R = data[i];
-        const G = data[i + 1];
-        const B = data[i + 2];
+      for (let x = 0; x < pw; x += 2) {
+        const a = (x < width ? x : width - 1) * 4;
+        const b = (x + 1 < width ? x + 1 : width - 1) * 4;
+        let R = data[row0 + a];
+        let G = data[row0 + a + 1];
+        let B = data[row0 + a + 2];
         y[yo + x] = 0.299 * R + 0.587 * G + 0.114 * B - 128;
+        let sr = R;
+        let sg = G;
+        let sb = B;
+        R = data[row0 + b];
+        G = data[row0 + b + 1];
+        B = data[row0 + b + 2];
+        y[yo + x + 1] = 0.299 * R + 0.587 * G + 0.114 * B - 128;
+        sr += R;
+        sg += G;
+        sb += B;
+        R = data[row1 + a];
+        G = data[row1 + a + 1];
+        B = data[row1 + a + 2];
+        y[yo + pw + x] = 0.299 * R + 0.587 * G + 0.114 * B - 128;
+        sr += R;
+        sg += G;
+        sb += B;
+        R = data[row1 + b];
+        G = data[row1 + b + 1];
+        B = data[row1 + b + 2];
+        y[yo + pw + x + 1] = 0.299 * R + 0.587 * G + 0.114 * B - 128;
+        sr += R;
+        sg += G;
+        sb += B;
         const k = co + (x >> 1);
-        cb[k] += (-0.168736 * R - 0.331264 * G + 0.5 * B) * 0.25;
-        cr[k] += (0.5 * R - 0.418688 * G - 0.081312 * B) * 0.25;
+        cb[k] = (-0.168736 * sr - 0.331264 * sg + 0.5 * sb) * 0.25;
+        cr[k] = (0.5 * sr - 0.418688 * sg - 0.081312 * sb) * 0.25;
       }
     }
     for (let mx = 0; mx < mcuX; mx++) {
       const x0 = mx * 16;
-      block(y, x0, pw, qy, blocks, at);
-      block(y, x0 + 8, pw, qy, blocks, at + 64);
-      block(y, 8 * pw + x0, pw, qy, blocks, at + 128);
-      block(y, 8 * pw + x0 + 8, pw, qy, blocks, at + 192);
-      block(cb, mx * 8, hw, qc, blocks, at + 256);
-      block(cr, mx * 8, hw, qc, blocks, at + 320);
+      const b = at / 64;
+      last[b] = block(y, x0, pw, qy, blocks, at);
+      last[b + 1] = block(y, x0 + 8, pw, qy, blocks, at + 64);
+      last[b + 2] = block(y, 8 * pw + x0, pw, qy, blocks, at + 128);
+      last[b + 3] = block(y, 8 * pw + x0 + 8, pw, qy, blocks, at + 192);
+      last[b + 4] = block(cb, mx * 8, hw, qc, blocks, at + 256);
+      last[b + 5] = block(cr, mx * 8, hw, qc, blocks, at + 320);
       at += 384;
     }
   }
-  return { blocks, count: at / 64 };
+  return { blocks, last, count: at / 64 };
 }
 
 /**
@@ -161,7 +193,8 @@ function scan(p: Planes, counts: Uint32Array[], out: Sink | null, table: Coded[]
       counts[dc][s]++;
     }
     let run = 0;
-    for (let k = 1; k < 64; k++) {
+    const end = p.last[b];
+    for (let k = 1; k <= end; k++) {
       const v = blocks[o + k];
       if (v === 0) {
         run++;
@@ -183,7 +216,8 @@ function scan(p: Planes, counts: Uint32Array[], out: Sink | null, table: Coded[]
       }
       run = 0;
     }
-    if (run > 0) {
+    // End of block unless the last coefficient was non-zero.
+    if (end < 63) {
       if (out) out.bits(table[ac].code[0], table[ac].len[0]);
       else counts[ac][0]++;
     }

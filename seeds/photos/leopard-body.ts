@@ -24,10 +24,10 @@ export function trunkParts(): Part[] {
 
 /** Ear centre, radii and tilt in units; the far ear sits a little further forward. */
 export const EAR = {
-  near: { c: [0.868, 0.572] as Pt, rx: 0.025, ry: 0.034, angle: 0.35 },
-  far: { c: [0.897, 0.58] as Pt, rx: 0.023, ry: 0.032, angle: 0.2 },
+  near: { c: [0.866, 0.575] as Pt, rx: 0.028, ry: 0.038, angle: 0.35 },
+  far: { c: [0.896, 0.582] as Pt, rx: 0.026, ry: 0.035, angle: 0.2 },
   /** Notch cut-out relative to the ear centre (up and back along the rim). */
-  notch: { dx: -0.008, dy: 0.03, r: 0.011 },
+  notch: { dx: -0.006, dy: 0.037, r: 0.013 },
 };
 
 /** Eye, nose and mouth positions in units (drawn by the shader, not as parts). */

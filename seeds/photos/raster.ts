@@ -150,32 +150,34 @@ export function mirrorRaster(img: Raster): void {
   }
 }
 
-/** Area-average downscale, used for the EXIF thumbnail. */
+/** Downscale by averaging a grid of up to 4×4 samples per output pixel (EXIF thumbnails). */
 export function downscale(src: Raster, width: number, height: number): Raster {
   const out = createRaster(width, height);
   const sx = src.width / width;
   const sy = src.height / height;
-  const sum = new Float64Array(3);
+  const kx = Math.max(1, Math.min(4, Math.ceil(sx)));
+  const ky = Math.max(1, Math.min(4, Math.ceil(sy)));
+  const n = kx * ky;
+  const s = src.data;
   for (let y = 0; y < height; y++) {
-    const ya = Math.floor(y * sy);
-    const yb = Math.max(ya + 1, Math.floor((y + 1) * sy));
     for (let x = 0; x < width; x++) {
-      const xa = Math.floor(x * sx);
-      const xb = Math.max(xa + 1, Math.floor((x + 1) * sx));
-      sum.fill(0);
-      for (let yy = ya; yy < yb; yy++) {
-        let i = (yy * src.width + xa) * 4;
-        for (let xx = xa; xx < xb; xx++, i += 4) {
-          sum[0] += src.data[i];
-          sum[1] += src.data[i + 1];
-          sum[2] += src.data[i + 2];
+      let r = 0;
+      let g = 0;
+      let b = 0;
+      for (let j = 0; j < ky; j++) {
+        const yy = Math.min(src.height - 1, Math.floor((y + (j + 0.5) / ky) * sy));
+        for (let i = 0; i < kx; i++) {
+          const xx = Math.min(src.width - 1, Math.floor((x + (i + 0.5) / kx) * sx));
+          const o = (yy * src.width + xx) * 4;
+          r += s[o];
+          g += s[o + 1];
+          b += s[o + 2];
         }
       }
-      const n = (yb - ya) * (xb - xa);
       const o = (y * width + x) * 4;
-      out.data[o] = sum[0] / n;
-      out.data[o + 1] = sum[1] / n;
-      out.data[o + 2] = sum[2] / n;
+      out.data[o] = r / n;
+      out.data[o + 1] = g / n;
+      out.data[o + 2] = b / n;
     }
   }
   return out;

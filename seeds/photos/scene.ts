@@ -13,7 +13,7 @@ import { drawText, textWidth } from './font';
 import { leopardFigure } from './leopard';
 import { paintOccluder } from './occluder';
 import { BOARD_TEXT_AREA, boardFigure, humanFigure, vehicleFigure } from './people';
-import { mirrorRaster, type Raster } from './raster';
+import { fillEllipse, mirrorRaster, type Raster } from './raster';
 import { Rng } from './random';
 import { speciesFigure } from './species';
 import { stationLook } from './station';
@@ -110,6 +110,7 @@ export function paintScene(spec: PhotoSpec): SceneResult {
   const wind = rng.fork('wind');
   const drawables = sceneDrawables(look, cam, light, wind.next(), v.wind);
   for (const d of drawables) if (d.z > z) d.draw(img);
+  if (layer && h && subject && !infrared) groundShadow(img, h, subject.figure);
   if (layer) compositeLayer(img, layer, light.gain(z));
   if (subject && h && spec.subject.kind === 'setup') drawBoardText(img, h, spec.subject.lines);
   // Scenery nearer than the subject distance (even in a blank) can be left out for clean views.
@@ -149,6 +150,17 @@ export function paintScene(spec: PhotoSpec): SceneResult {
     individual: subject?.individual ?? null,
     bandHeight: band,
   };
+}
+
+/** A soft contact shadow on the ground under a figure (daylight only: the flash casts it behind). */
+function groundShadow(img: Raster, h: Mat3, fig: Figure): void {
+  const [ax, ay] = applyH(h, fig.pivotX - fig.lengthM * 0.45, 0);
+  const [bx, by] = applyH(h, fig.pivotX + fig.lengthM * 0.45, 0);
+  const rx = Math.abs(bx - ax) / 2;
+  if (rx < 1) return;
+  for (const k of [1.15, 1, 0.85]) {
+    fillEllipse(img, (ax + bx) / 2, (ay + by) / 2, rx * k, rx * 0.09 * k, 0, [0, 0, 0], 0.08);
+  }
 }
 
 /** Warm light early and late in the day (read from the EXIF hour when there is one). */

@@ -200,25 +200,26 @@ function honeyBadger(gait: number, infrared: boolean): Figure {
 
 function baboon(gait: number, infrared: boolean): Figure {
   const b = { blend: 0.06 };
+  // Dog-like stance: shoulders above the hips, long limbs, head low and forward, tail in an arch.
   const parts: Part[] = [
-    ellipse('body', [0.34, 0.5], 0.32, 0.13, 0.15, b),
-    ellipse('mane', [0.55, 0.56], 0.16, 0.15, 0, b),
-    ellipse('head', [0.77, 0.56], 0.085, 0.085, 0, { blend: 0.03 }),
-    capsule('muzzle', [0.8, 0.53], [0.95, 0.47], 0.055, 0.038, { blend: 0.02 }),
-    capsule('tail', [0.04, 0.52], [-0.04, 0.64], 0.035, 0.03, { blend: 0.02 }),
-    capsule('tail', [-0.04, 0.64], [-0.12, 0.34], 0.03, 0.02, { blend: 0.01 }),
+    capsule('body', [0.14, 0.47], [0.5, 0.55], 0.11, 0.135, b),
+    ellipse('mane', [0.55, 0.58], 0.11, 0.11, 0, b),
+    ellipse('head', [0.72, 0.56], 0.075, 0.075, 0, { blend: 0.03 }),
+    capsule('muzzle', [0.74, 0.53], [0.87, 0.47], 0.05, 0.034, { blend: 0.02 }),
+    capsule('tail', [0.04, 0.5], [-0.04, 0.62], 0.03, 0.027, { blend: 0.02 }),
+    capsule('tail', [-0.04, 0.62], [-0.12, 0.36], 0.027, 0.018, { blend: 0.01 }),
     ...fourLegs(
       {
-        root: [0.6, 0.46],
-        lengths: [0.22, 0.2, 0.07],
-        angles: [-1.5, -1.6, 0],
-        radii: [0.055, 0.04, 0.032, 0.028],
+        root: [0.52, 0.5],
+        lengths: [0.24, 0.21, 0.07],
+        angles: [-1.55, -1.6, 0],
+        radii: [0.05, 0.035, 0.03, 0.026],
       },
       {
-        root: [0.1, 0.44],
-        lengths: [0.22, 0.2, 0.08],
-        angles: [-1.2, -1.85, -0.05],
-        radii: [0.065, 0.04, 0.032, 0.028],
+        root: [0.15, 0.44],
+        lengths: [0.2, 0.2, 0.08],
+        angles: [-1.25, -1.9, -0.05],
+        radii: [0.06, 0.036, 0.03, 0.026],
       },
       gait,
       0.04,
@@ -227,14 +228,14 @@ function baboon(gait: number, infrared: boolean): Figure {
   ];
   return {
     parts,
-    pivotX: 0.4,
-    lengthM: 0.9,
+    pivotX: 0.35,
+    lengthM: 0.85,
     shade(s: ShadeInput, out: Float32Array): void {
       const n = s.part.name;
       put(out, n === 'muzzle' ? [66, 60, 60] : [126, 116, 84]);
       if (n === 'mane') blend(out, [146, 136, 100], 0.5);
       if (n === 'leg' && s.y < 0.06) blend(out, [50, 46, 44], 0.8);
-      eye(out, s, 0.82, 0.57, 0.01, infrared);
+      eye(out, s, 0.76, 0.57, 0.01, infrared);
       finish(out, s, 0.07, 0.14);
     },
   };
