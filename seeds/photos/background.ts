@@ -198,7 +198,8 @@ function paintGround(
   const sp = Math.sin(cam.pitch);
   const d = img.data;
   for (let y = y0; y < cam.height; y++) {
-    // Where this row's rays meet the ground (see camera.groundAt): depth is the same along a row.
+    // Where this row's rays meet the ground plane (camera tilted down by pitch, at heightM):
+    // depth is the same all along a row.
     const yn = -(y - cam.cy) / cam.f;
     const yw = yn * cp - sp;
     if (yw >= -1e-6) continue;

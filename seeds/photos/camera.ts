@@ -40,23 +40,6 @@ export function project(cam: Camera, x: number, y: number, z: number): [number, 
   return [cam.cx + (cam.f * x) / zc, cam.cy - (cam.f * yc) / zc];
 }
 
-/** Where a pixel's ray meets the ground: [X, Z], or null above the horizon. */
-export function groundAt(cam: Camera, px: number, py: number): [number, number] | null {
-  const xn = (px - cam.cx) / cam.f;
-  const yn = -(py - cam.cy) / cam.f;
-  const cp = Math.cos(cam.pitch);
-  const sp = Math.sin(cam.pitch);
-  const yw = yn * cp - sp;
-  if (yw >= -1e-6) return null;
-  const t = -cam.heightM / yw;
-  return [t * xn, t * (yn * sp + cp)];
-}
-
-/** Pixels per metre for an upright object standing at distance z. */
-export function pixelsPerMetre(cam: Camera, z: number): number {
-  return cam.f / z;
-}
-
 /** Where an upright figure stands and how it is turned. */
 export interface Placement {
   /** Lateral position of the pivot on the ground, metres. */

@@ -27,16 +27,6 @@ export function cloneRaster(src: Raster): Raster {
   return { width: src.width, height: src.height, data: new Uint8ClampedArray(src.data) };
 }
 
-/** Blends a colour into one pixel with coverage a in [0, 1]. */
-export function blendPixel(img: Raster, x: number, y: number, c: Rgb, a: number): void {
-  if (x < 0 || y < 0 || x >= img.width || y >= img.height || a <= 0) return;
-  const i = (y * img.width + x) * 4;
-  const d = img.data;
-  d[i] += (c[0] - d[i]) * a;
-  d[i + 1] += (c[1] - d[i + 1]) * a;
-  d[i + 2] += (c[2] - d[i + 2]) * a;
-}
-
 /** Fills a rotated ellipse with an anti-aliased edge. */
 export function fillEllipse(
   img: Raster,

@@ -4,7 +4,7 @@
  */
 import exifr from 'exifr';
 import { imageSize } from 'image-size';
-import { describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { exifTimeOfWallClock, renderPhoto } from '../../seeds/photos/index';
 import type { PhotoSpec } from '../../seeds/photos/types';
 import { decode } from './decoded';
@@ -28,15 +28,18 @@ const spec: PhotoSpec = {
 };
 
 describe('EXIF of generated photos', () => {
+  let jpeg: Buffer;
+  beforeAll(async () => {
+    jpeg = (await renderPhoto(spec)).jpeg;
+  });
+
   it('should carry the camera-local capture time and sub-seconds exactly as written', async () => {
-    const { jpeg } = await renderPhoto(spec);
     const tags = await exifr.parse(jpeg, { reviveValues: false });
     expect(tags.DateTimeOriginal).toBe('2025:03:14 04:32:10');
     expect(tags.SubSecTimeOriginal).toBe('042');
   });
 
   it('should carry make, model and the body serial number', async () => {
-    const { jpeg } = await renderPhoto(spec);
     const tags = await exifr.parse(jpeg, { reviveValues: false });
     expect(tags.Make).toBe('Synthetic Trailcam');
     expect(tags.Model).toBe('ST-1');
@@ -45,14 +48,12 @@ describe('EXIF of generated photos', () => {
   });
 
   it('should carry GPS coordinates to better than a metre, with the southern hemisphere sign', async () => {
-    const { jpeg } = await renderPhoto(spec);
     const gps = await exifr.gps(jpeg);
     expect(gps.latitude).toBeCloseTo(-2.512345, 5);
     expect(gps.longitude).toBeCloseTo(37.201234, 5);
   });
 
   it('should embed a decodable thumbnail of about 160×120 in IFD1', async () => {
-    const { jpeg } = await renderPhoto(spec);
     const thumb = await exifr.thumbnail(jpeg);
     expect(thumb).toBeDefined();
     const img = await decode(Buffer.from(thumb ?? new Uint8Array()));
@@ -61,7 +62,6 @@ describe('EXIF of generated photos', () => {
   });
 
   it('should report the true pixel size to a header reader and a decoder', async () => {
-    const { jpeg } = await renderPhoto(spec);
     expect(imageSize(jpeg)).toMatchObject({ width: 480, height: 360, type: 'jpg' });
     const img = await decode(jpeg);
     expect([img.width, img.height]).toEqual([480, 360]);
