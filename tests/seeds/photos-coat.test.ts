@@ -64,6 +64,12 @@ describe('coat identity in rendered photos', () => {
     expect(correlation(day, night)).toBeGreaterThan(0.6);
   });
 
+  it('should keep the body-to-image homography right when the photo is mirrored', async () => {
+    const plain = await flankSamples('T-A', 'right', near, 1);
+    const mirrored = await flankSamples('T-A', 'right', { ...near, mirror: true }, 1);
+    expect(correlation(plain, mirrored)).toBeGreaterThan(0.9);
+  });
+
   it('should give the left and right flanks of one individual different patterns', async () => {
     const right = await flankSamples('T-A', 'right', near, 1);
     const left = await flankSamples('T-A', 'left', near, 1);
