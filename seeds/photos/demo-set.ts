@@ -98,8 +98,10 @@ export function demoPhotos(opts: DemoOptions): DemoPhoto[] {
     const st = rng.pick(stations);
     const camera = rng.pick(['A', 'B']);
     let subject = drawSubject(rng);
-    const trueStart = SEASON_START + rng.int(0, 60 * 86400 - 1) * 1000;
+    let trueStart = SEASON_START + rng.int(0, 60 * 86400 - 1) * 1000;
     if (subject.kind === 'setup') {
+      // Set-up boards are photographed when the camera is deployed: the first days, by daylight.
+      trueStart = SEASON_START + (rng.int(0, 1) * 86400 + rng.int(8 * 3600, 16 * 3600)) * 1000;
       const t = iso(trueStart).replace('T', ' ');
       subject = { kind: 'setup', lines: [`${st.code} ${camera}`, t.slice(0, 10), t.slice(11)] };
     }
