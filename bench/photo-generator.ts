@@ -9,6 +9,7 @@
  * reported as ratios. Medians of repeated runs, so other load on the machine matters less.
  */
 import { mkdir, writeFile } from 'node:fs/promises';
+import { cpus, loadavg } from 'node:os';
 import { parseArgs } from 'node:util';
 import { renderPhoto } from '../seeds/photos/index';
 import { encodeJpeg, type JpegEncoder } from '../seeds/photos/jpeg';
@@ -109,6 +110,9 @@ async function main(): Promise<void> {
     const enc = await timeEncoders(width, height, Math.min(n, 6));
     const row = {
       size: `${width}x${height}`,
+      // Other work on the machine inflates the absolute times (not the encoder ratios as much).
+      loadAverage1m: +loadavg()[0].toFixed(2),
+      cores: cpus().length,
       photos: n,
       msPerPhotoMedian: +median(photos).toFixed(1),
       msPerPhotoMean: +(photos.reduce((s, v) => s + v, 0) / n).toFixed(1),
