@@ -64,7 +64,7 @@ export function demoStations(): DemoStation[] {
 
 /** Clock error of a camera in seconds: most are right, one was reset, one runs an hour late. */
 function clockError(code: string, camera: string): number {
-  if (code === 'KH07' && camera === 'B') return Date.UTC(2000, 0, 1) - SEASON_START;
+  if (code === 'KH07' && camera === 'B') return (Date.UTC(2000, 0, 1) - SEASON_START) / 1000;
   if (code === 'KH13' && camera === 'A') return 67 * 60 + 12;
   return 0;
 }
@@ -92,7 +92,6 @@ function iso(ms: number): string {
 export function demoPhotos(opts: DemoOptions): DemoPhoto[] {
   const rng = new Rng(opts.seed ?? 2025);
   const stations = demoStations();
-  const counters = new Map<string, number>();
   const photos: DemoPhoto[] = [];
   while (photos.length < opts.count) {
     const st = rng.pick(stations);
@@ -127,13 +126,11 @@ export function demoPhotos(opts: DemoOptions): DemoPhoto[] {
         shot.subject.kind === 'target' ? (shot.subject.flank === 'right' ? 1 : -1) : 1;
       for (let k = 0; k < burst && photos.length < opts.count; k++) {
         const key = `${st.code}-${shot.cam}`;
-        const n = (counters.get(key) ?? 0) + 1;
-        counters.set(key, n);
         const trueMs = trueStart + k * 1000;
         const camMs = trueMs + clockError(st.code, shot.cam) * 1000;
         const pos = (base.position ?? 0) * shot.mirrorDir + heading * (k - (burst - 1) / 2) * 0.35;
         photos.push({
-          file: `${key}/IMG_${String(n).padStart(4, '0')}.JPG`,
+          file: key,
           trueLocalTime: iso(trueMs),
           spec: {
             width: opts.width,
@@ -158,5 +155,16 @@ export function demoPhotos(opts: DemoOptions): DemoPhoto[] {
       }
     }
   }
-  return photos;
+  return numberFiles(photos);
+}
+
+/** Cameras number their files in capture order: sort by true time, then count per camera. */
+function numberFiles(photos: DemoPhoto[]): DemoPhoto[] {
+  const sorted = [...photos].sort((a, b) => a.trueLocalTime.localeCompare(b.trueLocalTime));
+  const counters = new Map<string, number>();
+  return sorted.map((p) => {
+    const n = (counters.get(p.file) ?? 0) + 1;
+    counters.set(p.file, n);
+    return { ...p, file: `${p.file}/IMG_${String(n).padStart(4, '0')}.JPG` };
+  });
 }
