@@ -4,11 +4,19 @@
  * optional mirror. Returns the pixels and the geometric truth.
  */
 import { background, sceneLight } from './background';
-import { applyH, figureHomography, makeCamera, mirrorH, mul3, type Mat3 } from './camera';
+import {
+  applyH,
+  figureHomography,
+  makeCamera,
+  mirrorH,
+  mul3,
+  type Camera,
+  type Mat3,
+} from './camera';
 import { makeIndividual, type Individual } from './coat';
 import { applyDaylight, applyInfrared, bandHeight, drawBand } from './effects';
 import type { Figure } from './figure';
-import { compositeLayer, layerBox, renderFigure, type FigureLayer } from './figure-render';
+import { compositeLayer, layerBox, renderFigure } from './figure-render';
 import { drawText, textWidth } from './font';
 import { leopardFigure } from './leopard';
 import { paintOccluder } from './occluder';
@@ -16,7 +24,7 @@ import { BOARD_TEXT_AREA, boardFigure, humanFigure, vehicleFigure } from './peop
 import { fillEllipse, mirrorRaster, type Raster } from './raster';
 import { Rng } from './random';
 import { speciesFigure } from './species';
-import { stationLook } from './station';
+import { stationLook, type StationLook } from './station';
 import type { PhotoSpec, PixelBox, Variation } from './types';
 import { resolveVariation } from './variation';
 import { sceneDrawables } from './vegetation';
@@ -74,64 +82,63 @@ function buildSubject(spec: PhotoSpec, rng: Rng, gait: number, infrared: boolean
   }
 }
 
+/** Homography and rendered layer of the subject at its distance and pose. */
+function placeSubject(subject: Posed, v: Variation, look: StationLook, cam: Camera) {
+  const z = v.distanceM;
+  const half = Math.tan((look.hfovDeg * Math.PI) / 360);
+  const h = figureHomography(cam, {
+    x: v.position * z * half * 0.8,
+    z,
+    yaw: (v.yawDeg * Math.PI) / 180,
+    roll: (v.rollDeg * Math.PI) / 180,
+    dir: subject.dir,
+    pivotX: subject.figure.pivotX,
+  });
+  const ppm = cam.f / z;
+  const blur = v.motionBlur * subject.figure.lengthM * ppm;
+  return { h, layer: renderFigure(subject.figure, h, cam.width, cam.height, ppm, blur) };
+}
+
+/** Whole-frame light: the infrared night look, or daylight with warmth and dappled shade. */
+function applyLight(img: Raster, spec: PhotoSpec, v: Variation, rng: Rng): void {
+  if (spec.lighting === 'infrared') {
+    applyInfrared(img, rng.int(0, 2 ** 30), v.exposure);
+    return;
+  }
+  const seed = rng.int(0, 2 ** 30);
+  applyDaylight(img, seed, v.exposure, warmthOf(spec, rng), rng.range(0, 0.22));
+}
+
 /** Paints the scene of a photo spec. */
 export function paintScene(spec: PhotoSpec): SceneResult {
   const look = stationLook(spec.station, spec.camera);
   const cam = makeCamera(spec.width, spec.height, look.hfovDeg, look.cameraHeightM);
   const infrared = spec.lighting === 'infrared';
   const light = sceneLight(spec.lighting);
+  // Independent streams per concern, so the same scene can be painted with and without a subject.
   const rng = new Rng(spec.seed);
   const v = resolveVariation(spec.variation, look, spec.subject.kind);
   const img = background(look, cam, spec.lighting);
   const subject = buildSubject(spec, rng.fork('subject'), v.gait, infrared);
-  let layer: FigureLayer | null = null;
-  let h: Mat3 | null = null;
+  const placed = subject ? placeSubject(subject, v, look, cam) : null;
+  const layer = placed?.layer ?? null;
+  let h = placed?.h ?? null;
   const z = v.distanceM;
-  if (subject) {
-    const half = Math.tan((look.hfovDeg * Math.PI) / 360);
-    h = figureHomography(cam, {
-      x: v.position * z * half * 0.8,
-      z,
-      yaw: (v.yawDeg * Math.PI) / 180,
-      roll: (v.rollDeg * Math.PI) / 180,
-      dir: subject.dir,
-      pivotX: subject.figure.pivotX,
-    });
-    const ppm = cam.f / z;
-    layer = renderFigure(
-      subject.figure,
-      h,
-      cam.width,
-      cam.height,
-      ppm,
-      v.motionBlur * subject.figure.lengthM * ppm,
-    );
-  }
-  const wind = rng.fork('wind');
-  const drawables = sceneDrawables(look, cam, light, wind.next(), v.wind);
+  const drawables = sceneDrawables(look, cam, light, rng.fork('wind').next(), v.wind);
   for (const d of drawables) if (d.z > z) d.draw(img);
   if (layer && h && subject && !infrared) groundShadow(img, h, subject.figure);
   if (layer) compositeLayer(img, layer, light.gain(z));
-  if (subject && h && spec.subject.kind === 'setup') drawBoardText(img, h, spec.subject.lines);
+  if (h && spec.subject.kind === 'setup') drawBoardText(img, h, spec.subject.lines);
   // Scenery nearer than the subject distance (even in a blank) can be left out for clean views.
   if (spec.foreground !== false) for (const d of drawables) if (d.z <= z) d.draw(img);
+  const occluderSeed = rng.fork('occluder').int(0, 2 ** 30);
   const occludedFraction =
     layer && v.occlusion > 0
-      ? paintOccluder(img, layer, v.occlusion, rng.fork('occluder').int(0, 2 ** 30), look, light)
+      ? paintOccluder(img, layer, v.occlusion, occluderSeed, look, light)
       : 0;
-  const look2 = rng.fork('light');
-  if (infrared) applyInfrared(img, look2.int(0, 2 ** 30), v.exposure);
-  else
-    applyDaylight(
-      img,
-      look2.int(0, 2 ** 30),
-      v.exposure,
-      warmthOf(spec, look2),
-      look2.range(0, 0.22),
-    );
+  applyLight(img, spec, v, rng.fork('light'));
   const band = spec.band === false ? 0 : paintBand(img, spec, rng.fork('band'));
-  const sceneBottom = spec.height - band;
-  let bbox = layer ? layerBox(layer, 0.25, sceneBottom) : null;
+  let bbox = layer ? layerBox(layer, 0.25, spec.height - band) : null;
   if (v.mirror) {
     mirrorRaster(img);
     if (bbox) bbox = { ...bbox, x: spec.width - bbox.x - bbox.width };
