@@ -95,9 +95,64 @@ function block(
   return last;
 }
 
+/** One strip of 16 image rows into luma and 2×2-averaged chroma planes, edges replicated. */
+function convertStrip(
+  img: Raster,
+  my: number,
+  pw: number,
+  y: Float32Array,
+  cb: Float32Array,
+  cr: Float32Array,
+): void {
+  const { width, height, data } = img;
+  const hw = pw / 2;
+  // Two rows and two columns at a time: four luma samples and one averaged chroma pair.
+  for (let r = 0; r < 16; r += 2) {
+    const row0 = Math.min(height - 1, my * 16 + r) * width * 4;
+    const row1 = Math.min(height - 1, my * 16 + r + 1) * width * 4;
+    const yo = r * pw;
+    const co = (r >> 1) * hw;
+    for (let x = 0; x < pw; x += 2) {
+      const a = (x < width ? x : width - 1) * 4;
+      const b = (x + 1 < width ? x + 1 : width - 1) * 4;
+      let R = data[row0 + a];
+      let G = data[row0 + a + 1];
+      let B = data[row0 + a + 2];
+      y[yo + x] = 0.299 * R + 0.587 * G + 0.114 * B - 128;
+      let sr = R;
+      let sg = G;
+      let sb = B;
+      R = data[row0 + b];
+      G = data[row0 + b + 1];
+      B = data[row0 + b + 2];
+      y[yo + x + 1] = 0.299 * R + 0.587 * G + 0.114 * B - 128;
+      sr += R;
+      sg += G;
+      sb += B;
+      R = data[row1 + a];
+      G = data[row1 + a + 1];
+      B = data[row1 + a + 2];
+      y[yo + pw + x] = 0.299 * R + 0.587 * G + 0.114 * B - 128;
+      sr += R;
+      sg += G;
+      sb += B;
+      R = data[row1 + b];
+      G = data[row1 + b + 1];
+      B = data[row1 + b + 2];
+      y[yo + pw + x + 1] = 0.299 * R + 0.587 * G + 0.114 * B - 128;
+      sr += R;
+      sg += G;
+      sb += B;
+      const k = co + (x >> 1);
+      cb[k] = (-0.168736 * sr - 0.331264 * sg + 0.5 * sb) * 0.25;
+      cr[k] = (0.5 * sr - 0.418688 * sg - 0.081312 * sb) * 0.25;
+    }
+  }
+}
+
 /** Quantised coefficients (zig-zag order) of every block, in MCU order: Y×4, Cb, Cr. */
 function quantise(img: Raster, quality: number): Planes {
-  const { width, height, data } = img;
+  const { width, height } = img;
   const mcuX = Math.ceil(width / 16);
   const mcuY = Math.ceil(height / 16);
   const pw = mcuX * 16;
@@ -105,55 +160,13 @@ function quantise(img: Raster, quality: number): Planes {
   const last = new Uint8Array(mcuX * mcuY * 6);
   const qy = divisors(scaledTable(LUMA, quality));
   const qc = divisors(scaledTable(CHROMA, quality));
-  // One strip of 16 image rows at a time, edges replicated to whole MCUs.
   const y = new Float32Array(16 * pw);
   const cb = new Float32Array(8 * (pw / 2));
   const cr = new Float32Array(8 * (pw / 2));
   const hw = pw / 2;
   let at = 0;
   for (let my = 0; my < mcuY; my++) {
-    // Two rows and two columns at a time: four luma samples and one averaged chroma pair.
-    for (let r = 0; r < 16; r += 2) {
-      const row0 = Math.min(height - 1, my * 16 + r) * width * 4;
-      const row1 = Math.min(height - 1, my * 16 + r + 1) * width * 4;
-      const yo = r * pw;
-      const co = (r >> 1) * hw;
-      for (let x = 0; x < pw; x += 2) {
-        const a = (x < width ? x : width - 1) * 4;
-        const b = (x + 1 < width ? x + 1 : width - 1) * 4;
-        let R = data[row0 + a];
-        let G = data[row0 + a + 1];
-        let B = data[row0 + a + 2];
-        y[yo + x] = 0.299 * R + 0.587 * G + 0.114 * B - 128;
-        let sr = R;
-        let sg = G;
-        let sb = B;
-        R = data[row0 + b];
-        G = data[row0 + b + 1];
-        B = data[row0 + b + 2];
-        y[yo + x + 1] = 0.299 * R + 0.587 * G + 0.114 * B - 128;
-        sr += R;
-        sg += G;
-        sb += B;
-        R = data[row1 + a];
-        G = data[row1 + a + 1];
-        B = data[row1 + a + 2];
-        y[yo + pw + x] = 0.299 * R + 0.587 * G + 0.114 * B - 128;
-        sr += R;
-        sg += G;
-        sb += B;
-        R = data[row1 + b];
-        G = data[row1 + b + 1];
-        B = data[row1 + b + 2];
-        y[yo + pw + x + 1] = 0.299 * R + 0.587 * G + 0.114 * B - 128;
-        sr += R;
-        sg += G;
-        sb += B;
-        const k = co + (x >> 1);
-        cb[k] = (-0.168736 * sr - 0.331264 * sg + 0.5 * sb) * 0.25;
-        cr[k] = (0.5 * sr - 0.418688 * sg - 0.081312 * sb) * 0.25;
-      }
-    }
+    convertStrip(img, my, pw, y, cb, cr);
     for (let mx = 0; mx < mcuX; mx++) {
       const x0 = mx * 16;
       const b = at / 64;
