@@ -1,6 +1,11 @@
 import type { Logger } from 'pino';
 import type { Db } from '../server/db/database';
+import type { IngestRuntime } from '../server/ingest-runtime';
 import { createProject } from '../server/services/projects.service';
+import { setProjectSpecies } from '../server/services/species.service';
+import { seedDemoPhotos } from './demo-photos';
+import { seedDemoSorting } from './demo-sorting';
+import { SPECIES_NAMES } from './photos/species';
 import { setMemberRole } from '../server/services/members.service';
 import { createUser } from '../server/services/users.service';
 import {
@@ -13,17 +18,20 @@ import {
 } from './scenario';
 import { newId, nowIso } from '../server/services/ids';
 
-/** Options for seeding; uploadsDir is where the demo photos will be written. */
+/** Options for seeding: the ingest runtime stores the demo photos; painted photos are cached. */
 export interface SeedOptions {
   log?: Logger;
-  uploadsDir: string;
+  ingest: IngestRuntime;
+  cacheDir: string;
+  /** Skip painting and ingesting photos (accounts, project and grid only). */
+  withoutPhotos?: boolean;
 }
 
 /**
  * Seeds the fictional demo project into an empty database (no users yet). Returns false and changes
  * nothing when the database already has accounts.
  */
-export async function seedDemo(db: Db, _options: SeedOptions): Promise<boolean> {
+export async function seedDemo(db: Db, options: SeedOptions): Promise<boolean> {
   const anyUser = await db.selectFrom('users').select('id').limit(1).executeTakeFirst();
   if (anyUser) return false;
 
@@ -44,6 +52,29 @@ export async function seedDemo(db: Db, _options: SeedOptions): Promise<boolean> 
     if (user.role && id) await setMemberRole(db, project.id, id, user.role, adminId);
   }
   await seedStations(db, project.id, adminId);
+  await setProjectSpecies(
+    db,
+    project,
+    Object.values(SPECIES_NAMES).map((s) => ({
+      scientific: s.scientific,
+      common: s.common[0]!.toUpperCase() + s.common.slice(1),
+    })),
+    adminId,
+  );
+  if (options.withoutPhotos) return true;
+  const photos = await seedDemoPhotos(db, {
+    projectId: project.id,
+    uploaderId: ids.get('volunteer@demo.test')!,
+    cacheDir: options.cacheDir,
+    ingest: options.ingest,
+    log: options.log,
+  });
+  await seedDemoSorting(db, {
+    projectId: project.id,
+    reviewerIds: [ids.get('reviewer@demo.test')!, ids.get('reviewer2@demo.test')!],
+    photos,
+    sortedShare: 0.6,
+  });
   return true;
 }
 

@@ -1,3 +1,4 @@
+import { dirname, join } from 'node:path';
 import { pino } from 'pino';
 import { seedDemo } from '../seeds/demo';
 import { createApp } from './app';
@@ -29,12 +30,16 @@ async function main(): Promise<void> {
   }
   const mailer = createSmtpMailer(smtpUrl, config.mailFrom);
 
+  const ingest = await startIngest(db, config, log);
   if (config.seedDemo) {
-    const seeded = await seedDemo(db, { log, uploadsDir: config.uploadsDir });
+    const seeded = await seedDemo(db, {
+      log,
+      ingest,
+      cacheDir: join(dirname(config.databasePath), 'demo-cache'),
+    });
     if (seeded) log.info('demo project seeded (see README for the demo accounts)');
   }
 
-  const ingest = await startIngest(db, config, log);
   const app = createApp({ db, config, log, mailer, ingest });
   const server = app.listen(config.port, config.host, () => {
     log.info(`Maculo is running on ${config.publicUrl}`);

@@ -1,21 +1,21 @@
 /**
- * Writes a synthetic demo season as JPEGs plus truth.json.
+ * Writes the synthetic demo season (or a busier one) as JPEGs per camera plus truth.json.
  *
- *   npx tsx seeds/photos/cli.ts --out dir --count N --width W --height H
- *     [--seed S] [--quality Q] [--concurrency C]
+ *   npx tsx seeds/photos/cli.ts --out dir [--width 1024] [--height 768] [--density 1]
+ *     [--seed 2026] [--quality 82] [--concurrency 2]
  */
 import { mkdir, writeFile } from 'node:fs/promises';
 import { dirname, join } from 'node:path';
 import { parseArgs } from 'node:util';
-import { demoPhotos } from './demo-set';
+import { demoSeason } from '../demo-season';
 import { renderSet } from './index';
 
-function intOption(values: Record<string, unknown>, name: string, fallback: number): number {
+function numberOption(values: Record<string, unknown>, name: string, fallback: number): number {
   const raw = values[name];
   if (raw === undefined) return fallback;
   const n = Number(raw);
-  if (!Number.isInteger(n) || n < 0)
-    throw new Error(`--${name} must be a whole number, got "${String(raw)}"`);
+  if (!Number.isFinite(n) || n <= 0)
+    throw new Error(`--${name} must be a positive number, got "${String(raw)}"`);
   return n;
 }
 
@@ -23,24 +23,21 @@ async function main(): Promise<void> {
   const { values } = parseArgs({
     options: {
       out: { type: 'string' },
-      count: { type: 'string' },
       width: { type: 'string' },
       height: { type: 'string' },
+      density: { type: 'string' },
       seed: { type: 'string' },
       quality: { type: 'string' },
       concurrency: { type: 'string' },
     },
   });
   if (!values.out) throw new Error('--out <dir> is required');
-  const count = intOption(values, 'count', 50);
-  const width = intOption(values, 'width', 1024);
-  const height = intOption(values, 'height', 768);
-  const plan = demoPhotos({
-    count,
-    width,
-    height,
-    seed: intOption(values, 'seed', 2025),
-    quality: intOption(values, 'quality', 85),
+  const plan = demoSeason({
+    width: numberOption(values, 'width', 1024),
+    height: numberOption(values, 'height', 768),
+    density: numberOption(values, 'density', 1),
+    seed: numberOption(values, 'seed', 2026),
+    quality: numberOption(values, 'quality', 82),
   });
   const out = values.out;
   const started = performance.now();
@@ -51,16 +48,14 @@ async function main(): Promise<void> {
     await renderSet(
       part.map((p) => p.spec),
       {
-        concurrency: intOption(values, 'concurrency', 1),
+        concurrency: numberOption(values, 'concurrency', 2),
         onPhoto: async (i, photo) => {
-          const path = join(out, part[i].file);
+          const p = part[i]!;
+          const file = `${p.stationCode}-${p.cameraLabel}/${p.file}`;
+          const path = join(out, file);
           await mkdir(dirname(path), { recursive: true });
           await writeFile(path, photo.jpeg);
-          truth[first + i] = {
-            file: part[i].file,
-            trueLocalTime: part[i].trueLocalTime,
-            truth: photo.truth,
-          };
+          truth[first + i] = { file, trueTime: p.trueTime, truth: photo.truth };
         },
       },
     );

@@ -51,14 +51,13 @@ export async function renderPhoto(spec: PhotoSpec): Promise<RenderedPhoto> {
   checkSpec(spec);
   const scene = paintScene(spec);
   const quality = spec.quality ?? 85;
-  const encoder = spec.encoder ?? 'baseline';
-  let jpeg = await encodeJpeg(scene.img, quality, encoder);
+  let jpeg = await encodeJpeg(scene.img, quality);
   if (spec.exif) {
     let thumb: Buffer | undefined;
     if (spec.exif.thumbnail !== false) {
       const tw = 160;
       const th = Math.max(1, Math.round((tw * spec.height) / spec.width));
-      thumb = await encodeJpeg(downscale(scene.img, tw, th), 75, encoder);
+      thumb = await encodeJpeg(downscale(scene.img, tw, th), 75);
     }
     jpeg = insertExif(jpeg, buildExif(spec.exif, spec.width, spec.height, thumb));
   }

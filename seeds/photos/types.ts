@@ -85,8 +85,6 @@ export interface PhotoSpec {
   readonly exif?: ExifFields;
   /** JPEG quality 1–100 (default 85). */
   readonly quality?: number;
-  /** JPEG encoder: our fast baseline encoder (default) or mozjpeg (smaller files, slower). */
-  readonly encoder?: 'baseline' | 'mozjpeg';
   /** Text at the left of the data band (default: station and camera). False: no band. */
   readonly band?: string | false;
   /**

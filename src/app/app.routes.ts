@@ -57,7 +57,7 @@ export const routes: Routes = [
             path: 'overview',
             title: 'Overview · Maculo',
             canActivate: [projectRoleGuard('volunteer')],
-            loadComponent: () => import('./projects/overview-page').then((m) => m.OverviewPage),
+            loadChildren: () => import('./projects/overview.routes').then((m) => m.OVERVIEW_ROUTES),
           },
           {
             path: 'settings',

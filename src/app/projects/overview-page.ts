@@ -1,3 +1,4 @@
+import { httpResource } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { MatCard, MatCardContent, MatCardHeader, MatCardTitle } from '@angular/material/card';
 import { MatIcon } from '@angular/material/icon';
@@ -7,6 +8,8 @@ import { ROLE_LABELS } from '../../../shared/roles';
 import { navFor } from '../core/navigation';
 import { ProjectStore } from '../core/project-store';
 import { CautionNote } from '../ui/caution-note';
+import { AbundanceIndexView, type AbundanceIndex } from './abundance-index';
+import { ProgressChart, type StationProgress } from './progress-chart';
 
 /** A project's front page: what it is, its settings, where to go next, and the cautions. */
 @Component({
@@ -20,6 +23,8 @@ import { CautionNote } from '../ui/caution-note';
     MatButton,
     RouterLink,
     CautionNote,
+    ProgressChart,
+    AbundanceIndexView,
   ],
   templateUrl: './overview-page.html',
   styleUrl: './overview-page.scss',
@@ -36,6 +41,15 @@ export class OverviewPage {
     navFor(this.project()?.role ?? null).filter((item) => item.path !== 'overview'),
   );
   protected readonly canEditSettings = computed(() => this.store.can('ecologist'));
+  protected readonly progress = httpResource<{
+    photos: { total: number; ready: number; failed: number; waiting: number };
+    events: { total: number; sorted: number; byLabel: Record<string, number> };
+    sightings: Record<string, number>;
+    byStation: StationProgress[];
+  }>(() => `/api/projects/${this.project()?.slug}/progress`);
+  protected readonly index = httpResource<AbundanceIndex>(
+    () => `/api/projects/${this.project()?.slug}/relative-abundance`,
+  );
   protected readonly precisionText = computed(() => {
     const p = this.project();
     if (!p) return '';

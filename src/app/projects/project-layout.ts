@@ -1,4 +1,12 @@
-import { ChangeDetectionStrategy, Component, effect, inject, input, signal } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  effect,
+  inject,
+  input,
+  signal,
+  untracked,
+} from '@angular/core';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { RouterOutlet } from '@angular/router';
 import { apiErrorMessage } from '../core/api-error';
@@ -28,8 +36,11 @@ export class ProjectLayout {
   constructor() {
     effect(() => {
       const slug = this.slug();
-      this.error.set(null);
-      this.store.open(slug).catch((err: unknown) => this.error.set(apiErrorMessage(err)));
+      // Only the slug is a dependency: opening the project updates the store's own signals.
+      untracked(() => {
+        this.error.set(null);
+        this.store.open(slug).catch((err: unknown) => this.error.set(apiErrorMessage(err)));
+      });
     });
   }
 }

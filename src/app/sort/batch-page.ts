@@ -1,5 +1,13 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, inject, signal, type OnDestroy, type OnInit } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  inject,
+  signal,
+  type OnDestroy,
+  type OnInit,
+} from '@angular/core';
 import { MatButton } from '@angular/material/button';
 import { MatCheckbox } from '@angular/material/checkbox';
 import { MatProgressBar } from '@angular/material/progress-bar';
@@ -14,7 +22,15 @@ import { SpeciesPicker } from './species-picker';
 /** Labels a run of events together (a night of wind-triggered blanks): select, then one label. */
 @Component({
   selector: 'mac-batch-page',
-  imports: [DatePipe, RouterLink, MatButton, MatCheckbox, MatProgressBar, QueueFilters, SpeciesPicker],
+  imports: [
+    DatePipe,
+    RouterLink,
+    MatButton,
+    MatCheckbox,
+    MatProgressBar,
+    QueueFilters,
+    SpeciesPicker,
+  ],
   templateUrl: './batch-page.html',
   styleUrl: './batch-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -82,9 +98,14 @@ export class BatchPage implements OnInit, OnDestroy {
     if (!ids.length) return;
     this.busy.set(true);
     try {
-      const res = await this.api.labelBatch(this.slug(), ids, { label, ...(species ? { species } : {}) });
+      const res = await this.api.labelBatch(this.slug(), ids, {
+        label,
+        ...(species ? { species } : {}),
+      });
       const failed = res.results.filter((r) => !r.ok);
-      this.message.set(`${res.labelled} events labelled${failed.length ? `; ${failed.length} skipped: ${failed[0]!.message}` : '.'}`);
+      this.message.set(
+        `${res.labelled} events labelled${failed.length ? `; ${failed.length} skipped: ${failed[0]!.message}` : '.'}`,
+      );
       await this.load();
     } catch (err) {
       this.message.set(apiErrorMessage(err));

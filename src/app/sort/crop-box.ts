@@ -20,7 +20,13 @@ export interface CropRect {
       (pointerup)="end()"
     >
       @if (shown(); as r) {
-        <div class="box" [style.left.%]="r.x * 100" [style.top.%]="r.y * 100" [style.width.%]="r.w * 100" [style.height.%]="r.h * 100"></div>
+        <div
+          class="box"
+          [style.left.%]="r.x * 100"
+          [style.top.%]="r.y * 100"
+          [style.width.%]="r.w * 100"
+          [style.height.%]="r.h * 100"
+        ></div>
       }
     </div>
   `,
@@ -68,7 +74,12 @@ export class CropBox {
     const o = this.origin();
     if (!o) return;
     const p = this.point(event, o.el);
-    this.live.set({ x: Math.min(o.x, p.x), y: Math.min(o.y, p.y), w: Math.abs(p.x - o.x), h: Math.abs(p.y - o.y) });
+    this.live.set({
+      x: Math.min(o.x, p.x),
+      y: Math.min(o.y, p.y),
+      w: Math.abs(p.x - o.x),
+      h: Math.abs(p.y - o.y),
+    });
   }
 
   protected end(): void {

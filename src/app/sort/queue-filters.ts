@@ -78,8 +78,14 @@ export class QueueFilters {
   readonly changed = output<QueueFilter>();
   protected readonly flags = PHOTO_FLAGS;
   protected readonly flagText = FLAG_TEXT;
-  protected readonly stations = httpResource<StationView[]>(() => `/api/projects/${this.slug()}/stations`, { defaultValue: [] });
-  protected readonly deployments = httpResource<DeploymentView[]>(() => `/api/projects/${this.slug()}/deployments`, { defaultValue: [] });
+  protected readonly stations = httpResource<StationView[]>(
+    () => `/api/projects/${this.slug()}/stations`,
+    { defaultValue: [] },
+  );
+  protected readonly deployments = httpResource<DeploymentView[]>(
+    () => `/api/projects/${this.slug()}/deployments`,
+    { defaultValue: [] },
+  );
   protected readonly order = signal<'oldest' | 'station'>('oldest');
   protected readonly stationId = signal('');
   protected readonly deploymentId = signal('');

@@ -43,7 +43,9 @@ export class SortApi {
       const value = filter[key];
       if (value) params[key] = value;
     }
-    return firstValueFrom(this.http.get<{ events: EventView[] }>(`/api/projects/${slug}/sort/next`, { params }));
+    return firstValueFrom(
+      this.http.get<{ events: EventView[] }>(`/api/projects/${slug}/sort/next`, { params }),
+    );
   }
 
   /** Gives back this reviewer's leases. */
@@ -53,16 +55,18 @@ export class SortApi {
 
   /** Labels one event. */
   label(slug: string, eventId: string, body: LabelRequest): Promise<EventView> {
-    return firstValueFrom(this.http.post<EventView>(`/api/projects/${slug}/events/${eventId}/label`, body));
+    return firstValueFrom(
+      this.http.post<EventView>(`/api/projects/${slug}/events/${eventId}/label`, body),
+    );
   }
 
   /** Labels many events. */
   labelBatch(slug: string, eventIds: string[], body: LabelRequest) {
     return firstValueFrom(
-      this.http.post<{ labelled: number; results: { id: string; ok: boolean; message?: string }[] }>(
-        `/api/projects/${slug}/events/label-batch`,
-        { eventIds, ...body },
-      ),
+      this.http.post<{
+        labelled: number;
+        results: { id: string; ok: boolean; message?: string }[];
+      }>(`/api/projects/${slug}/events/label-batch`, { eventIds, ...body }),
     );
   }
 
@@ -73,7 +77,9 @@ export class SortApi {
 
   /** Records a sighting. */
   createSighting(slug: string, eventId: string, body: SightingRequest): Promise<SightingView> {
-    return firstValueFrom(this.http.post<SightingView>(`/api/projects/${slug}/events/${eventId}/sightings`, body));
+    return firstValueFrom(
+      this.http.post<SightingView>(`/api/projects/${slug}/events/${eventId}/sightings`, body),
+    );
   }
 
   /** Removes an open sighting. */

@@ -1,5 +1,13 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, inject, signal, type OnDestroy, type OnInit } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  inject,
+  signal,
+  type OnDestroy,
+  type OnInit,
+} from '@angular/core';
 import { MatButton } from '@angular/material/button';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
@@ -35,7 +43,17 @@ const BATCH = 20;
 /** Keyboard-first triage: one key per label, the event's photos at a glance, sightings for the target species. */
 @Component({
   selector: 'mac-sort-page',
-  imports: [DatePipe, RouterLink, MatButton, MatProgressBar, EmptyState, ZoomPane, SpeciesPicker, CropBox, QueueFilters],
+  imports: [
+    DatePipe,
+    RouterLink,
+    MatButton,
+    MatProgressBar,
+    EmptyState,
+    ZoomPane,
+    SpeciesPicker,
+    CropBox,
+    QueueFilters,
+  ],
   templateUrl: './sort-page.html',
   styleUrl: './sort-page.scss',
   host: { '(document:keydown)': 'onKey($event)' },
@@ -63,10 +81,15 @@ export class SortPage implements OnInit, OnDestroy {
   protected readonly done = signal(0);
   protected readonly undoStack = signal<UndoEntry[]>([]);
   protected readonly keyHelp = KEY_HELP;
-  protected readonly event = computed(() => this.queue()[this.index()] ?? null);
-  protected readonly photo = computed(() => this.event()?.photos[this.photoIndex()] ?? null);
-  protected readonly draft = computed(() => this.drafts()[this.draftIndex()] ?? null);
+  protected readonly event = computed<EventView | null>(() => this.queue()[this.index()] ?? null);
+  protected readonly photo = computed<EventView['photos'][number] | null>(
+    () => this.event()?.photos[this.photoIndex()] ?? null,
+  );
+  protected readonly draft = computed<SightingDraft | null>(
+    () => this.drafts()[this.draftIndex()] ?? null,
+  );
   protected readonly target = computed(() => this.species().find((s) => s.target) ?? null);
+  private pending: Promise<void> = Promise.resolve();
 
   async ngOnInit(): Promise<void> {
     this.species.set(await this.api.species(this.slug()).catch(() => []));
@@ -110,7 +133,8 @@ export class SortPage implements OnInit, OnDestroy {
     const action = sortKeyAction(event.key, this.mode(), event.ctrlKey || event.metaKey);
     if (action.kind === 'none') return;
     event.preventDefault();
-    void this.perform(action);
+    // Keys are handled one after another, so a fast typist's labels land on the right events.
+    this.pending = this.pending.then(() => this.perform(action)).catch(() => undefined);
   }
 
   private async perform(action: SortAction): Promise<void> {
@@ -177,13 +201,18 @@ export class SortPage implements OnInit, OnDestroy {
       });
       this.undoStack.update((s) => [
         ...s.slice(-49),
-        { eventId: event.id, before: { label: event.label, species: event.species, count: event.count }, version: updated.version },
+        {
+          eventId: event.id,
+          before: { label: event.label, species: event.species, count: event.count },
+          version: updated.version,
+        },
       ]);
       this.queue.update((q) => q.map((e) => (e.id === updated.id ? updated : e)));
       this.pendingCount.set(1);
       this.done.update((n) => n + 1);
       this.error.set(null);
-      if (label === 'animal' && species === this.target()?.scientific) return this.openSightings(updated);
+      if (label === 'animal' && species === this.target()?.scientific)
+        return this.openSightings(updated);
       this.moveEvent(1);
     } catch (err) {
       this.error.set(apiErrorMessage(err));
@@ -223,7 +252,13 @@ export class SortPage implements OnInit, OnDestroy {
     const needed = Math.max(0, (event.count ?? 1) - existing);
     if (needed === 0) return this.moveEvent(1);
     this.drafts.set(
-      Array.from({ length: needed }, () => ({ flank: null, quality: null, bestPhotoId: this.photo()?.id ?? null, crop: null, saved: false })),
+      Array.from({ length: needed }, () => ({
+        flank: null,
+        quality: null,
+        bestPhotoId: this.photo()?.id ?? null,
+        crop: null,
+        saved: false,
+      })),
     );
     this.draftIndex.set(0);
     this.mode.set('sighting');
@@ -235,7 +270,8 @@ export class SortPage implements OnInit, OnDestroy {
   }
 
   protected setCrop(crop: CropRect | null): void {
-    if (this.mode() === 'sighting') this.patchDraft({ crop, bestPhotoId: this.photo()?.id ?? null });
+    if (this.mode() === 'sighting')
+      this.patchDraft({ crop, bestPhotoId: this.photo()?.id ?? null });
   }
 
   protected async saveSighting(): Promise<void> {
@@ -253,7 +289,9 @@ export class SortPage implements OnInit, OnDestroy {
         bestPhotoId: draft.bestPhotoId ?? event.photos[0]!.id,
         crop: draft.crop,
       });
-      this.queue.update((q) => q.map((e) => (e.id === event.id ? { ...e, sightings: [...e.sightings, saved] } : e)));
+      this.queue.update((q) =>
+        q.map((e) => (e.id === event.id ? { ...e, sightings: [...e.sightings, saved] } : e)),
+      );
       this.patchDraft({ saved: true });
       this.error.set(null);
       if (this.draftIndex() + 1 < this.drafts().length) this.draftIndex.update((i) => i + 1);
@@ -272,7 +310,19 @@ export class SortPage implements OnInit, OnDestroy {
   protected async reveal(photoId: string): Promise<void> {
     await this.api.reveal(photoId);
     this.queue.update((q) =>
-      q.map((e) => ({ ...e, photos: e.photos.map((p) => (p.id === photoId ? { ...p, blurred: false, previewUrl: `${p.previewUrl}?r=1`, thumbUrl: `${p.thumbUrl}?r=1` } : p)) })),
+      q.map((e) => ({
+        ...e,
+        photos: e.photos.map((p) =>
+          p.id === photoId
+            ? {
+                ...p,
+                blurred: false,
+                previewUrl: `${p.previewUrl}?r=1`,
+                thumbUrl: `${p.thumbUrl}?r=1`,
+              }
+            : p,
+        ),
+      })),
     );
   }
 }

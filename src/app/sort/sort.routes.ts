@@ -7,8 +7,16 @@ export const SORT_ROUTES: Routes = [
     canActivate: [projectRoleGuard('reviewer')],
     children: [
       { path: '', loadComponent: () => import('./sort-page').then((m) => m.SortPage) },
-      { path: 'batch', title: 'Batch sort · Maculo', loadComponent: () => import('./batch-page').then((m) => m.BatchPage) },
-      { path: 'sorted', title: 'Sorted events · Maculo', loadComponent: () => import('./sorted-page').then((m) => m.SortedPage) },
+      {
+        path: 'batch',
+        title: 'Batch sort · Maculo',
+        loadComponent: () => import('./batch-page').then((m) => m.BatchPage),
+      },
+      {
+        path: 'sorted',
+        title: 'Sorted events · Maculo',
+        loadComponent: () => import('./sorted-page').then((m) => m.SortedPage),
+      },
     ],
   },
 ];

@@ -15,7 +15,17 @@ import { SpeciesPicker } from './species-picker';
 /** Sorted events: who sorted what; a reviewer can change a label, and the change is recorded. */
 @Component({
   selector: 'mac-sorted-page',
-  imports: [DatePipe, FormsModule, RouterLink, MatButton, MatFormField, MatLabel, MatSelect, MatOption, SpeciesPicker],
+  imports: [
+    DatePipe,
+    FormsModule,
+    RouterLink,
+    MatButton,
+    MatFormField,
+    MatLabel,
+    MatSelect,
+    MatOption,
+    SpeciesPicker,
+  ],
   templateUrl: './sorted-page.html',
   styles: `
     .events {
@@ -62,7 +72,10 @@ export class SortedPage {
     if (this.after()) params.set('after', this.after()!);
     return `/api/projects/${this.slug()}/events?${params.toString()}`;
   });
-  protected readonly species = httpResource<SpeciesEntry[]>(() => `/api/projects/${this.slug()}/species`, { defaultValue: [] });
+  protected readonly species = httpResource<SpeciesEntry[]>(
+    () => `/api/projects/${this.slug()}/species`,
+    { defaultValue: [] },
+  );
   protected readonly editing = signal<EventView | null>(null);
   protected readonly error = signal<string | null>(null);
 

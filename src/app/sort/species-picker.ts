@@ -1,4 +1,14 @@
-import { ChangeDetectionStrategy, Component, ElementRef, afterNextRender, computed, input, output, signal, viewChild } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  ElementRef,
+  afterNextRender,
+  computed,
+  input,
+  output,
+  signal,
+  viewChild,
+} from '@angular/core';
 import type { SpeciesEntry } from '../../../shared/sort';
 import { SpeciesSearch, type SpeciesOption } from './species-search';
 

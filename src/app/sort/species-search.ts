@@ -15,8 +15,14 @@ export class SpeciesSearch {
 
   constructor(projectList: SpeciesEntry[]) {
     const seen = new Set<string>();
-    this.all = [...projectList, ...SPECIES_CATALOG].filter((s) => !seen.has(s.scientific) && seen.add(s.scientific));
-    this.fuse = new Fuse(this.all, { keys: ['common', 'scientific'], threshold: 0.35, ignoreLocation: true });
+    this.all = [...projectList, ...SPECIES_CATALOG].filter(
+      (s) => !seen.has(s.scientific) && seen.add(s.scientific),
+    );
+    this.fuse = new Fuse(this.all, {
+      keys: ['common', 'scientific'],
+      threshold: 0.35,
+      ignoreLocation: true,
+    });
   }
 
   /** Best matches first; an empty query gives nothing (the quick list is shown instead). */

@@ -25,7 +25,13 @@ export const NO_ZOOM: ZoomState = { scale: 1, x: 0, y: 0 };
       (pointerleave)="endDrag()"
       (dblclick)="zoom.set(noZoom)"
     >
-      <img [src]="src()" [alt]="alt()" [style.transform]="transform()" [style.filter]="filter()" draggable="false" />
+      <img
+        [src]="src()"
+        [alt]="alt()"
+        [style.transform]="transform()"
+        [style.filter]="filter()"
+        draggable="false"
+      />
       <ng-content />
     </div>
   `,
@@ -68,7 +74,9 @@ export class ZoomPane {
     const z = this.zoom();
     return `translate(${z.x}px, ${z.y}px) scale(${z.scale})${this.mirrored() ? ' scaleX(-1)' : ''}`;
   });
-  protected readonly filter = computed(() => `brightness(${this.brightness()}) contrast(${this.contrast()})`);
+  protected readonly filter = computed(
+    () => `brightness(${this.brightness()}) contrast(${this.contrast()})`,
+  );
 
   protected zoomBy(event: WheelEvent): void {
     event.preventDefault();
@@ -88,7 +96,11 @@ export class ZoomPane {
   protected drag(event: PointerEvent): void {
     const from = this.dragFrom();
     if (!from) return;
-    this.zoom.set({ ...from.start, x: from.start.x + event.clientX - from.x, y: from.start.y + event.clientY - from.y });
+    this.zoom.set({
+      ...from.start,
+      x: from.start.x + event.clientX - from.x,
+      y: from.start.y + event.clientY - from.y,
+    });
   }
 
   protected endDrag(): void {
