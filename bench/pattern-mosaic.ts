@@ -53,6 +53,11 @@ export function mosaicReference(
       vocabulary: chosen[0].vocabulary,
       width: chosen[0].width,
       height: chosen[0].height,
+      // The first donor's frame: the scenery test then only knows that cell's background, which
+      // leaves mosaics a little more likely to match a query's scenery (a pessimistic choice).
+      crop: chosen[0].crop,
+      photoWidth: chosen[0].photoWidth,
+      photoHeight: chosen[0].photoHeight,
       plain: {
         points: Float32Array.from(points),
         descriptors: bytes,

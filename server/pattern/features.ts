@@ -147,7 +147,16 @@ export function extractFeaturesWith(
       cv.flip(grey, flipped, 1);
       mirrored = describe(cv, flipped, vocab);
     }
-    return { vocabulary: vocab?.id ?? '', width: grey.cols, height: grey.rows, plain, mirrored };
+    return {
+      vocabulary: vocab?.id ?? '',
+      width: grey.cols,
+      height: grey.rows,
+      crop: box,
+      photoWidth: pixels.width,
+      photoHeight: pixels.height,
+      plain,
+      mirrored,
+    };
   } catch (err) {
     throw cvError(cv, err);
   } finally {

@@ -6,6 +6,7 @@
  * can re-rank a long shortlist and pass only the best few pairs on.
  */
 import { asWords, hamming } from './hamming';
+import type { SceneryTest } from './scenery';
 import { PATTERN_PARAMS, type FeatureView } from './types';
 
 /** A view with the aspect ratio (width / height) of its working image. */
@@ -31,7 +32,7 @@ function generator(seed: number): () => number {
  * the closest reference keypoint (by Hamming distance, under a ceiling) among those with the same
  * word inside the window.
  */
-function wordMatches(q: AspectView, r: AspectView): Float64Array {
+function wordMatches(q: AspectView, r: AspectView, scenery: SceneryTest | null): Float64Array {
   const byWord = new Map<number, number[]>();
   const rw = r.view.words;
   for (let j = 0; j < rw.length; j++) {
@@ -53,6 +54,7 @@ function wordMatches(q: AspectView, r: AspectView): Float64Array {
     for (const j of list) {
       if (Math.abs(qp[i * 2] - rp[j * 2]) >= gateWidth) continue;
       if (Math.abs(qp[i * 2 + 1] - rp[j * 2 + 1]) >= gateHeight) continue;
+      if (scenery?.(qp[i * 2], qp[i * 2 + 1], rp[j * 2], rp[j * 2 + 1])) continue;
       const d = hamming(qd, i, rd, j);
       if (d < bestDistance) {
         bestDistance = d;
@@ -66,8 +68,13 @@ function wordMatches(q: AspectView, r: AspectView): Float64Array {
 }
 
 /** Keypoint pairs consistent with the best similarity transform found (0 when none). */
-export function prematchInliers(q: AspectView, r: AspectView, seed = 1): number {
-  const m = wordMatches(q, r);
+export function prematchInliers(
+  q: AspectView,
+  r: AspectView,
+  seed = 1,
+  scenery: SceneryTest | null = null,
+): number {
+  const m = wordMatches(q, r, scenery);
   const n = m.length / 4;
   if (n < 3) return 0;
   const random = generator(seed);

@@ -13,6 +13,7 @@ import {
 } from './catalogue';
 import { type Cv, cvError, loadOpenCv } from './opencv';
 import { prematchInliers } from './prematch';
+import { sceneryTest } from './scenery';
 import {
   PATTERN_PARAMS,
   type FeatureSet,
@@ -53,6 +54,7 @@ export function prematchShortlist(
       { view, aspect: query.width / query.height },
       { view: f.plain, aspect: f.width / f.height },
       i + 1,
+      sceneryTest(query, ref.mirrored, f),
     );
     const seen = best.get(ref.individualId);
     if (!seen || inliers > seen.prematchInliers)
@@ -68,7 +70,7 @@ function unflipQuery(pairs: readonly MatchedPair[]): MatchedPair[] {
   return pairs.map(([qx, qy, rx, ry]) => [1 - qx, qy, rx, ry]);
 }
 
-/** Full verification (OpenCV loaded) of pre-verified pairs; one candidate per individual. */
+/** Full verification (OpenCV loaded) of pre-verified pairs: one candidate per pair, best first. */
 export function verifyPrematchedWith(
   cv: Cv,
   query: FeatureSet,
@@ -86,7 +88,10 @@ export function verifyPrematchedWith(
         verifiers.set(ref.mirrored, verifier);
       }
       const f = ref.features;
-      const v = verifier.verify({ view: f.plain, width: f.width, height: f.height });
+      const v = verifier.verify(
+        { view: f.plain, width: f.width, height: f.height },
+        sceneryTest(query, ref.mirrored, f),
+      );
       out.push({
         individualId: ref.individualId,
         score: scoreOfInliers(v.inliers),

@@ -1,7 +1,8 @@
 /**
  * Compact binary form of a feature set for a SQLite BLOB. Little-endian:
  *   "MCPF", format u8, flags u8 (bit 0: mirrored view present), vocabulary id (u8 length + ASCII),
- *   working width u16, height u16, then per view: count u16, points (u16 x, u16 y as fractions of
+ *   working width u16, height u16, crop x, y, width, height u16, photo width, height u16,
+ *   then per view: count u16, points (u16 x, u16 y as fractions of
  *   65535), descriptors (count × 32 bytes), words (count × u16).
  * About 38 bytes per keypoint; points lose at most 1/131070 of the crop to quantisation.
  */
@@ -47,15 +48,19 @@ export function serializeFeatures(features: FeatureSet): Buffer {
   const id = Buffer.from(features.vocabulary, 'ascii');
   if (id.length > 255) throw new RangeError('vocabulary id longer than 255 bytes');
   const views = features.mirrored ? [features.plain, features.mirrored] : [features.plain];
-  const size = 4 + 2 + 1 + id.length + 4 + views.reduce((s, v) => s + viewBytes(v), 0);
+  const size = 4 + 2 + 1 + id.length + 16 + views.reduce((s, v) => s + viewBytes(v), 0);
   const buf = Buffer.alloc(size);
   let o = buf.writeUInt32LE(MAGIC, 0);
   o = buf.writeUInt8(FORMAT, o);
   o = buf.writeUInt8(features.mirrored ? 1 : 0, o);
   o = buf.writeUInt8(id.length, o);
   o += id.copy(buf, o);
-  o = buf.writeUInt16LE(features.width, o);
-  o = buf.writeUInt16LE(features.height, o);
+  const { crop } = features;
+  for (const v of [features.width, features.height, crop.x, crop.y, crop.width, crop.height]) {
+    o = buf.writeUInt16LE(v, o);
+  }
+  o = buf.writeUInt16LE(features.photoWidth, o);
+  o = buf.writeUInt16LE(features.photoHeight, o);
   for (const v of views) o = writeView(buf, o, v);
   return buf;
 }
@@ -77,7 +82,7 @@ function readView(buf: Buffer, at: number, hasWords: boolean): [FeatureView, num
 /** Reads back a feature set written by serializeFeatures. */
 export function deserializeFeatures(blob: Uint8Array): FeatureSet {
   const buf = Buffer.from(blob.buffer, blob.byteOffset, blob.byteLength);
-  if (buf.length < 11 || buf.readUInt32LE(0) !== MAGIC) throw new RangeError('not a feature blob');
+  if (buf.length < 7 || buf.readUInt32LE(0) !== MAGIC) throw new RangeError('not a feature blob');
   if (buf.readUInt8(4) !== FORMAT)
     throw new RangeError(`unknown feature format ${buf.readUInt8(4)}`);
   const flags = buf.readUInt8(5);
@@ -85,13 +90,16 @@ export function deserializeFeatures(blob: Uint8Array): FeatureSet {
   let o = 7;
   const vocabulary = buf.toString('ascii', o, o + idLength);
   o += idLength;
-  const width = buf.readUInt16LE(o);
-  const height = buf.readUInt16LE(o + 2);
-  o += 4;
+  if (buf.length < o + 16) throw new RangeError('feature blob is truncated');
+  const [width, height, x, y, cw, ch, photoWidth, photoHeight] = Array.from({ length: 8 }, (_, k) =>
+    buf.readUInt16LE(o + 2 * k),
+  );
+  o += 16;
   const hasWords = vocabulary !== '';
   const [plain, afterPlain] = readView(buf, o, hasWords);
   const mirrored = flags & 1 ? readView(buf, afterPlain, hasWords)[0] : null;
-  return { vocabulary, width, height, plain, mirrored };
+  const crop = { x, y, width: cw, height: ch };
+  return { vocabulary, width, height, crop, photoWidth, photoHeight, plain, mirrored };
 }
 
 /** A reference's stored form: the plain view only (references are never flipped). */

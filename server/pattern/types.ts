@@ -43,6 +43,10 @@ export interface FeatureSet {
   /** Working image size in pixels (the crop resized to WORKING_SIZE on its long side). */
   readonly width: number;
   readonly height: number;
+  /** Where the crop lies in the photo (source pixels) and the photo's size. */
+  readonly crop: PixelCrop;
+  readonly photoWidth: number;
+  readonly photoHeight: number;
   /** The crop as seen. */
   readonly plain: FeatureView;
   /**
@@ -98,6 +102,11 @@ export const PATTERN_PARAMS = {
   ransacPx: 6,
   ransacIters: 2000,
   ransacConfidence: 0.995,
+  /**
+   * Matches whose two points sit at the same place of the photo frame (within this fraction of
+   * the photo width) are fixed scenery seen by the same camera, not coat: they are dropped.
+   */
+  sceneryTolerance: 0.006,
   /** Bounds on |det| of the homography's 2×2 part: outside means a collapsed or exploded fit. */
   minDet: 0.05,
   maxDet: 20,

@@ -5,6 +5,7 @@
  */
 import { DESCRIPTOR_BYTES } from './hamming';
 import { type BfMatcher, type Cv, type Mat, release } from './opencv';
+import type { SceneryTest } from './scenery';
 import { PATTERN_PARAMS, type FeatureView, type MatchedPair } from './types';
 
 /** Outcome of one verification; pairs are in fractions of each view's own frame. */
@@ -101,8 +102,8 @@ export class Verifier {
     this.matcher = new cv.BFMatcher(cv.NORM_HAMMING, false);
   }
 
-  /** Verifies the query against one reference view. */
-  verify(ref: SizedView): Verification {
+  /** Verifies the query against one reference view, leaving out matches on fixed scenery. */
+  verify(ref: SizedView, scenery: SceneryTest | null = null): Verification {
     const nq = this.queryMat.rows;
     const nr = ref.view.descriptors.length / DESCRIPTOR_BYTES;
     if (nq < MIN_TENTATIVE || nr < MIN_TENTATIVE) return none('too few keypoints');
@@ -112,6 +113,13 @@ export class Verifier {
       matches = tentativeMatches(this.cv, this.matcher, this.queryMat, refMat);
     } finally {
       refMat.delete();
+    }
+    if (scenery) {
+      const qp = this.query.view.points;
+      const rp = ref.view.points;
+      matches = matches.filter(
+        ([i, j]) => !scenery(qp[i * 2], qp[i * 2 + 1], rp[j * 2], rp[j * 2 + 1]),
+      );
     }
     if (matches.length < MIN_TENTATIVE) return none('too few tentative matches');
     return this.fit(matches, ref);
