@@ -17,6 +17,7 @@ import { adminRoutes } from './routes/admin.routes';
 import { authRoutes } from './routes/auth.routes';
 import { estimateRoutes } from './routes/estimate.routes';
 import { healthRoutes } from './routes/health.routes';
+import { identifyRoutes } from './routes/identify.routes';
 import { deploymentsRoutes } from './routes/deployments.routes';
 import { photosRoutes } from './routes/photos.routes';
 import { projectsRoutes } from './routes/projects.routes';
@@ -94,6 +95,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(uploadsRoutes(deps));
   api.use(photosRoutes(deps));
   api.use(sortRoutes(deps));
+  api.use(identifyRoutes(deps));
   api.use(estimateRoutes(deps));
   api.use(apiNotFound);
   app.use('/api', api);

@@ -12,6 +12,12 @@ import type {
   StationsTable,
   UploadFilesTable,
 } from './schema/ingest.table';
+import type {
+  AliasesTable,
+  CallsTable,
+  IndividualsTable,
+  ReferencePhotosTable,
+} from './schema/identify.table';
 import type { MembershipsTable, ProjectsTable } from './schema/projects.table';
 import type { ProjectSpeciesTable, SightingsTable } from './schema/sort.table';
 import type {
@@ -40,6 +46,10 @@ export interface Database {
   events: EventsTable;
   project_species: ProjectSpeciesTable;
   sightings: SightingsTable;
+  individuals: IndividualsTable;
+  reference_photos: ReferencePhotosTable;
+  aliases: AliasesTable;
+  calls: CallsTable;
 }
 
 /** The app's database handle. */

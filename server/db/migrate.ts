@@ -3,12 +3,14 @@ import type { Db } from './database';
 import * as m0001 from './migrations/0001_foundation';
 import * as m0002 from './migrations/0002_ingest';
 import * as m0003 from './migrations/0003_sort';
+import * as m0004 from './migrations/0004_identify';
 
 /** Migrations in order; imported statically so they work the same under tsx, tests and builds. */
 const MIGRATIONS: Record<string, Migration> = {
   '0001_foundation': m0001,
   '0002_ingest': m0002,
   '0003_sort': m0003,
+  '0004_identify': m0004,
 };
 
 class StaticProvider implements MigrationProvider {

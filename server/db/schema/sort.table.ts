@@ -22,4 +22,6 @@ export interface SightingsTable {
   created_by: string | null;
   created_at: string;
   updated_at: string;
+  lease_holder: string | null;
+  lease_until: string | null;
 }
