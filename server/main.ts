@@ -1,4 +1,3 @@
-import { dirname, join } from 'node:path';
 import { pino } from 'pino';
 import { seedDemo } from '../seeds/demo';
 import { createApp } from './app';
@@ -35,7 +34,7 @@ async function main(): Promise<void> {
     const seeded = await seedDemo(db, {
       log,
       ingest,
-      cacheDir: join(dirname(config.databasePath), 'demo-cache'),
+      cacheDir: config.demoCacheDir,
     });
     if (seeded) log.info('demo project seeded (see README for the demo accounts)');
   }
