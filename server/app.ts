@@ -18,6 +18,7 @@ import { authRoutes } from './routes/auth.routes';
 import { estimateRoutes } from './routes/estimate.routes';
 import { healthRoutes } from './routes/health.routes';
 import { identifyRoutes } from './routes/identify.routes';
+import { curateRoutes } from './routes/curate.routes';
 import { deploymentsRoutes } from './routes/deployments.routes';
 import { photosRoutes } from './routes/photos.routes';
 import { projectsRoutes } from './routes/projects.routes';
@@ -96,6 +97,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(photosRoutes(deps));
   api.use(sortRoutes(deps));
   api.use(identifyRoutes(deps));
+  api.use(curateRoutes(deps));
   api.use(estimateRoutes(deps));
   api.use(apiNotFound);
   app.use('/api', api);

@@ -5,6 +5,7 @@ import { loadConfig } from './config';
 import { openDatabase } from './db/database';
 import { migrateToLatest } from './db/migrate';
 import { startIngest } from './ingest-runtime';
+import { startScheduler } from './scheduler';
 import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp';
 import { createSmtpMailer } from './mail/mailer';
 import { closeSecrPool } from './workers/secr-pool';
@@ -40,6 +41,7 @@ async function main(): Promise<void> {
   }
 
   const app = createApp({ db, config, log, mailer, ingest });
+  const stopScheduler = startScheduler({ db, mailer, log, publicUrl: config.publicUrl });
   const server = app.listen(config.port, config.host, () => {
     log.info(`Maculo is running on ${config.publicUrl}`);
   });
@@ -48,6 +50,7 @@ async function main(): Promise<void> {
   const shutdown = (signal: string) => {
     log.info({ signal }, 'shutting down');
     server.close(() => {
+      stopScheduler();
       mailer.close();
       void ingest.stop();
       void Promise.resolve(fakeSmtp?.close()).finally(

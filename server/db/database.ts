@@ -3,6 +3,7 @@ import { mkdirSync } from 'node:fs';
 import { dirname } from 'node:path';
 import { Kysely, SqliteDialect } from 'kysely';
 import type { AuditLogTable, MailMessagesTable } from './schema/audit.table';
+import type { DuplicateDismissalsTable, IdentityChangesTable } from './schema/curate.table';
 import type {
   CardUploadsTable,
   DeploymentsTable,
@@ -50,6 +51,8 @@ export interface Database {
   reference_photos: ReferencePhotosTable;
   aliases: AliasesTable;
   calls: CallsTable;
+  identity_changes: IdentityChangesTable;
+  duplicate_dismissals: DuplicateDismissalsTable;
 }
 
 /** The app's database handle. */

@@ -6,7 +6,7 @@ import type { ProjectsTable } from '../db/schema/projects.table';
 import { ApiError } from '../errors/api-error';
 import { recordAudit } from './audit.service';
 import { bumpCatalogue } from './catalogue-cache';
-import { newId, nowIso } from './ids';
+import { newId } from './ids';
 import {
   activateIndividual,
   addFirstReference,
@@ -63,7 +63,7 @@ export async function makeCall(
         'You already made a call on this sighting; a second review must come from someone else.',
       );
     }
-    const now = nowIso();
+    const now = new Date().toISOString();
     if (
       sighting.lease_holder &&
       sighting.lease_holder !== reviewer.id &&

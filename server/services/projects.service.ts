@@ -119,6 +119,7 @@ export async function createProject(
     tile_url: input.tileUrl,
     gps_tolerance_m: input.gpsToleranceM,
     human_retention_days: input.humanRetentionDays,
+    last_digest_at: null,
   };
   await db.transaction().execute(async (trx) => {
     await trx.insertInto('projects').values(row).execute();
