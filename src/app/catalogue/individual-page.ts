@@ -19,6 +19,7 @@ import { apiErrorMessage } from '../core/api-error';
 import { ProjectStore } from '../core/project-store';
 import { CautionNote } from '../ui/caution-note';
 import { StationMap, type MapPoint } from '../ui/station-map';
+import { CurateApi } from '../curate/curate-api';
 import { CatalogueApi } from './catalogue-api';
 import type { IndividualDetail } from './individual-detail';
 
@@ -73,6 +74,10 @@ export class IndividualPage {
   });
   protected readonly tileUrl = computed(() => this.store.current()?.tileUrl ?? null);
   protected readonly flanks = ['left', 'right', 'other'] as const;
+  private readonly curate = inject(CurateApi);
+  protected readonly chosen = signal<ReadonlySet<string>>(new Set());
+  protected readonly changeReason = signal('');
+  protected readonly targetCode = signal('');
   protected readonly editing = signal(false);
   protected readonly nickname = signal('');
   protected readonly sex = signal('unknown');
@@ -147,5 +152,54 @@ export class IndividualPage {
       .map((r) => r.photoId)
       .filter((id) => id !== photoId);
     this.detail.set(await this.api.setReferences(this.slug(), d.id, flank, keep));
+  }
+
+  protected toggleChosen(sightingId: string): void {
+    const next = new Set(this.chosen());
+    if (next.has(sightingId)) next.delete(sightingId);
+    else next.add(sightingId);
+    this.chosen.set(next);
+  }
+
+  private reason(): string | null {
+    const r = this.changeReason().trim();
+    if (r.length >= 3) return r;
+    this.snackBar.open('Give a reason (a few words); it stays in the history.', 'OK', {
+      duration: 5000,
+    });
+    return null;
+  }
+
+  /** Moves the chosen sightings to a new individual, or to the one named by the code typed. */
+  protected async split(): Promise<void> {
+    const d = this.detail.value();
+    const reason = this.reason();
+    if (!d || !reason || this.chosen().size === 0) return;
+    try {
+      const into = this.targetCode().trim()
+        ? await this.curate.resolveCode(this.slug(), this.targetCode())
+        : undefined;
+      const res = await this.curate.split(this.slug(), d.id, [...this.chosen()], reason, into);
+      this.snackBar.open(res.change.summary, 'OK', { duration: 5000 });
+      this.chosen.set(new Set());
+      this.detail.reload();
+    } catch (err) {
+      this.snackBar.open(apiErrorMessage(err), 'Dismiss', { duration: 6000 });
+    }
+  }
+
+  /** Merges this individual into the one named by the code typed. */
+  protected async mergeInto(): Promise<void> {
+    const d = this.detail.value();
+    const reason = this.reason();
+    if (!d || !reason || !this.targetCode().trim()) return;
+    try {
+      const into = await this.curate.resolveCode(this.slug(), this.targetCode());
+      const res = await this.curate.merge(this.slug(), d.id, into, reason);
+      this.snackBar.open(res.change.summary, 'OK', { duration: 5000 });
+      this.detail.reload();
+    } catch (err) {
+      this.snackBar.open(apiErrorMessage(err), 'Dismiss', { duration: 6000 });
+    }
   }
 }

@@ -1,4 +1,5 @@
 import { DatePipe, PercentPipe } from '@angular/common';
+import { httpResource } from '@angular/common/http';
 import {
   ChangeDetectionStrategy,
   Component,
@@ -82,6 +83,19 @@ export class IdentifyPage implements OnInit {
   protected readonly reference = computed(() => {
     const refs = this.candidate()?.references ?? [];
     return refs.length ? refs[this.referenceIndex() % refs.length]! : null;
+  });
+  /** This reviewer's recent calls and how each sighting ended (disputes included). */
+  protected readonly myCalls = httpResource<
+    {
+      callId: string;
+      verdict: string;
+      calledCode: string | null;
+      at: string;
+      outcome: string;
+      finalCode: string | null;
+    }[]
+  >(() => (this.slug() ? `/api/projects/${this.slug()}/calls/mine` : undefined), {
+    defaultValue: [],
   });
   private readonly queries = new Subject<string>();
   private pending: Promise<void> = Promise.resolve();
@@ -238,6 +252,7 @@ export class IdentifyPage implements OnInit {
       this.message.set(
         `${text ?? 'Recorded as unidentifiable.'} The sighting is now ${state}${code && state === 'confirmed' ? ` as ${code}` : ''}.`,
       );
+      this.myCalls.reload();
       await this.loadNext();
     } catch (err) {
       this.error.set(apiErrorMessage(err));
