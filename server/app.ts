@@ -1,3 +1,4 @@
+import type SQLite from 'better-sqlite3';
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import express, { type Express } from 'express';
@@ -15,6 +16,7 @@ import type { Mailer } from './mail/mailer';
 import { csrfProtection, xsrfCookie } from './middleware/csrf';
 import { adminRoutes } from './routes/admin.routes';
 import { authRoutes } from './routes/auth.routes';
+import { exportsRoutes } from './routes/exports.routes';
 import { estimateRoutes } from './routes/estimate.routes';
 import { healthRoutes } from './routes/health.routes';
 import { identifyRoutes } from './routes/identify.routes';
@@ -33,6 +35,8 @@ export interface AppDeps {
   log: Logger;
   mailer: Mailer;
   ingest: IngestRuntime;
+  /** The raw SQLite handle, for the online backup API (falls back to VACUUM INTO without it). */
+  sqlite?: SQLite.Database;
 }
 
 export const SESSION_COOKIE = 'maculo.sid';
@@ -99,6 +103,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(identifyRoutes(deps));
   api.use(curateRoutes(deps));
   api.use(estimateRoutes(deps));
+  api.use(exportsRoutes(deps));
   api.use(apiNotFound);
   app.use('/api', api);
 

@@ -14,7 +14,7 @@ import { closeSecrPool } from './workers/secr-pool';
 async function main(): Promise<void> {
   const config = loadConfig();
   const log = pino({ level: config.logLevel });
-  const { db } = openDatabase(config.databasePath);
+  const { db, sqlite } = openDatabase(config.databasePath);
   const applied = await migrateToLatest(db);
   if (applied.length) log.info({ applied }, 'database migrated');
 
@@ -40,7 +40,7 @@ async function main(): Promise<void> {
     if (seeded) log.info('demo project seeded (see README for the demo accounts)');
   }
 
-  const app = createApp({ db, config, log, mailer, ingest });
+  const app = createApp({ db, sqlite, config, log, mailer, ingest });
   const stopScheduler = startScheduler({ db, mailer, log, publicUrl: config.publicUrl });
   const server = app.listen(config.port, config.host, () => {
     log.info(`Maculo is running on ${config.publicUrl}`);

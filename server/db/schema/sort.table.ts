@@ -24,4 +24,6 @@ export interface SightingsTable {
   updated_at: string;
   lease_holder: string | null;
   lease_until: string | null;
+  /** For sightings imported from a package: the agreement and call count it recorded. */
+  imported_review?: string | null;
 }
