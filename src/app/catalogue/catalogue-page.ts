@@ -1,3 +1,5 @@
+import { MatIcon } from '@angular/material/icon';
+import { MatAnchor } from '@angular/material/button';
 import { DatePipe } from '@angular/common';
 import { httpResource } from '@angular/common/http';
 import {
@@ -41,6 +43,8 @@ import { EmptyState } from '../ui/empty-state';
 @Component({
   selector: 'mac-catalogue-page',
   imports: [
+    MatAnchor,
+    MatIcon,
     DatePipe,
     FormsModule,
     RouterLink,
