@@ -14,6 +14,7 @@ import type { IngestRuntime } from './ingest-runtime';
 import type { Mailer } from './mail/mailer';
 import { csrfProtection, xsrfCookie } from './middleware/csrf';
 import { adminRoutes } from './routes/admin.routes';
+import { analysesRoutes } from './routes/analyses.routes';
 import { authRoutes } from './routes/auth.routes';
 import { estimateRoutes } from './routes/estimate.routes';
 import { healthRoutes } from './routes/health.routes';
@@ -22,6 +23,7 @@ import { curateRoutes } from './routes/curate.routes';
 import { deploymentsRoutes } from './routes/deployments.routes';
 import { photosRoutes } from './routes/photos.routes';
 import { projectsRoutes } from './routes/projects.routes';
+import { sessionsRoutes } from './routes/sessions.routes';
 import { sortRoutes } from './routes/sort.routes';
 import { stationsRoutes } from './routes/stations.routes';
 import { uploadsRoutes } from './routes/uploads.routes';
@@ -99,6 +101,8 @@ export function createApp(deps: AppDeps): Express {
   api.use(identifyRoutes(deps));
   api.use(curateRoutes(deps));
   api.use(estimateRoutes(deps));
+  api.use(sessionsRoutes(deps));
+  api.use(analysesRoutes(deps));
   api.use(apiNotFound);
   app.use('/api', api);
 
