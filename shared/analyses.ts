@@ -313,3 +313,13 @@ export interface AnalysisPage {
   items: AnalysisListItem[];
   next: string | null;
 }
+
+/** `GET …/sessions/defaults`: what the session form starts from. */
+export interface SessionDefaults {
+  timezone: string;
+  occasionHours: number;
+  /** First and last day with a deployment, in the project's time zone (YYYY-MM-DD), if any. */
+  firstDay: string | null;
+  lastDay: string | null;
+  stations: { id: string; code: string; name: string }[];
+}

@@ -7,6 +7,7 @@ import { projectOf, projectRole, userOf } from '../middleware/access';
 import { parseWith } from '../middleware/validate';
 import { SecrJobs } from '../services/secr-fits.service';
 import { buildSession, normaliseSession } from '../services/session-build.service';
+import { sessionDefaults } from '../services/session-queries';
 import { csvFileName, sessionCsv } from '../services/session-csv';
 import { estimateSession, secrBlocker, secrRequestOf } from '../services/session-models.service';
 import { ApiError } from '../errors/api-error';
@@ -24,6 +25,14 @@ const tableSchema = z.enum(SESSION_TABLES, {
 export function sessionsRoutes({ db, log }: AppDeps): Router {
   const router = Router();
   const jobs = new SecrJobs(log);
+
+  router.get(
+    '/projects/:slug/sessions/defaults',
+    projectRole(db, 'ecologist'),
+    async (req, res) => {
+      res.json(await sessionDefaults(db, projectOf(req).row));
+    },
+  );
 
   router.post(
     '/projects/:slug/sessions/preview',

@@ -166,6 +166,21 @@ describe('flank policies and photo quality', () => {
   });
 });
 
+describe('session defaults', () => {
+  it("should start the form from the deployments' span in local days and list the stations", async () => {
+    const res = await ecologist.get(url('/sessions/defaults'));
+    expect(res.status).toBe(200);
+    // Earliest start 06-01 00:00 UTC and latest end 07-20 00:00 UTC are 03:00 in Nairobi (UTC+3).
+    expect(res.body).toMatchObject({
+      timezone: 'Africa/Nairobi',
+      occasionHours: 24,
+      firstDay: '2026-06-01',
+      lastDay: '2026-07-20',
+    });
+    expect(res.body.stations.map((s: { code: string }) => s.code)).toEqual(['D', 'L', 'P', 'Z']);
+  });
+});
+
 describe('session input errors and downloads', () => {
   it('should refuse a session that ends before it starts, and unknown stations', async () => {
     const backwards = await ecologist.post(url('/sessions/preview'), {
