@@ -154,11 +154,15 @@ async function sessionInputs(
       .execute();
     for (const r of rows) codes.set(r.id, r.code ?? r.id);
   }
+  // Individuals in display-code order, as people read the catalogue.
+  const order = data.individuals
+    .map((id, i) => ({ i, code: codes.get(id) ?? id }))
+    .sort((a, b) => a.code.localeCompare(b.code, 'en', { numeric: true }) || a.i - b.i);
   const detections: SessionInputs['detections'] = [];
-  data.detections.forEach((byOccasion, i) =>
-    byOccasion.forEach((row, s) =>
-      row.forEach((count, k) => {
-        if (count > 0) detections.push([i, s, k, count]);
+  order.forEach(({ i }, row) =>
+    data.detections[i]?.forEach((cells, s) =>
+      cells.forEach((count, k) => {
+        if (count > 0) detections.push([row, s, k, count]);
       }),
     ),
   );
@@ -177,10 +181,10 @@ async function sessionInputs(
       x: round(plane.get(s.id)?.x ?? 0, 2),
       y: round(plane.get(s.id)?.y ?? 0, 2),
     })),
-    individuals: data.individuals.map((id) => ({ id, code: codes.get(id) ?? id })),
+    individuals: order.map(({ i, code }) => ({ id: data.individuals[i] ?? '', code })),
     // Six decimals of a day is under a tenth of a second: enough, and stable to re-serialise.
     effort: data.effort.map((row) => row.map((v) => round(v, 6))),
-    histories: data.histories.map((row) => row.join('')),
+    histories: order.map(({ i }) => (data.histories[i] ?? []).join('')),
     detections,
     sightingIds: used.map((s) => s.id).sort(),
   };

@@ -125,6 +125,14 @@ describe('flank policies and photo quality', () => {
       [I6.code]: '0100',
     });
     expect(fair.warnings.join(' ')).toContain('counts as two');
+    // Rows follow the display codes, as the catalogue lists them.
+    expect(fair.inputs.individuals.map((i) => i.code)).toEqual([
+      I1.code,
+      I2.code,
+      I3.code,
+      I4.code,
+      I6.code,
+    ]);
     const poor = await preview({ flankPolicy: 'all', minQuality: 'poor' });
     expect(historiesByCode(poor)[I5.code]).toBe('0010');
     const good = await preview({ flankPolicy: 'all', minQuality: 'good' });

@@ -35,7 +35,6 @@ export class MatrixHeatmap {
   readonly columns = input.required<readonly string[]>();
   readonly values = input.required<readonly (readonly number[])[]>();
   readonly pieces = input.required<readonly HeatmapPiece[]>();
-  readonly rowName = input('');
   readonly unit = input('');
   readonly ariaLabel = input('Heatmap');
   protected readonly init = CHART_INIT;
@@ -77,7 +76,6 @@ export class MatrixHeatmap {
         type: 'category',
         inverse: true,
         data: [...rows],
-        name: this.rowName(),
         axisLabel: { color: CHART_TEXT, fontSize: 10 },
       },
       visualMap: {

@@ -99,6 +99,11 @@ function codes(list: readonly { code: string }[]): string {
     </details>
   `,
   styleUrl: './estimate-results.scss',
+  styles: `
+    .figures {
+      margin: 12px 0;
+    }
+  `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class RerunComparisonView {

@@ -30,7 +30,6 @@ import { WarningList } from './warning-list';
           [columns]="columns()"
           [values]="inputs().effort"
           [pieces]="effort()"
-          rowName="station"
           unit="days active"
           ariaLabel="Heatmap of the effort grid: stations by occasions, coloured by days active; grey means no working camera"
         />
@@ -44,7 +43,6 @@ import { WarningList } from './warning-list';
             [columns]="columns()"
             [values]="histories()"
             [pieces]="history"
-            rowName="individual"
             ariaLabel="Heatmap of the capture histories: individuals by occasions, coloured where detected"
           />
         } @else {
