@@ -3,6 +3,7 @@
  * Request schemas are shared by the server (validation) and the client (types).
  */
 import { z } from 'zod';
+import type { TwoSampleResult } from './estimate';
 import type { SecrProgressView, ClosedResponse, SecrResponse } from './estimate-api';
 import { QUALITIES, type Quality } from './sort';
 
@@ -215,6 +216,8 @@ export interface AnalysisResults {
   warnings: string[];
   closed: ClosedResponse | null;
   closedReason: string | null;
+  /** Lincoln–Petersen and Chapman, when the session has exactly two occasions. */
+  twoSample: TwoSampleResult | null;
   twoStep: TwoStepComparison | null;
   twoStepReason: string | null;
   secrRequested: boolean;

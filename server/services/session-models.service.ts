@@ -12,7 +12,13 @@ import type {
 } from '../../shared/analyses';
 import type { SecrRequest } from '../../shared/estimate';
 import type { ClosedResponse } from '../../shared/estimate-api';
-import { estimateClosed, twoStepDensity, TWO_STEP_CRITIQUE } from '../estimation';
+import type { TwoSampleResult } from '../../shared/estimate';
+import {
+  estimateClosed,
+  estimateTwoSample,
+  twoStepDensity,
+  TWO_STEP_CRITIQUE,
+} from '../estimation';
 import { toClosedResponse } from './estimates.service';
 
 /** Closed-population models on the session's histories, or the reason there are none. */
@@ -39,6 +45,14 @@ export function closedOnSession(inputs: SessionInputs): {
     if (err instanceof RangeError) return { closed: null, reason: err.message };
     throw err;
   }
+}
+
+/** Two occasions are two samples: M caught first, C caught second, R of them caught in both. */
+export function twoSampleOnSession(inputs: SessionInputs): TwoSampleResult | null {
+  if (inputs.occasions.length !== 2 || inputs.histories.length === 0) return null;
+  const count = (h: string) => inputs.histories.filter((x) => x === h).length;
+  const R = count('11');
+  return estimateTwoSample({ M: count('10') + R, C: count('01') + R, R });
 }
 
 /** The model whose N̂ the two-step density divides: lowest AICc among full-likelihood models. */
@@ -134,6 +148,7 @@ export function estimateSession(session: SessionPreview, secrRequested: boolean)
     warnings: session.warnings,
     closed,
     closedReason: reason,
+    twoSample: twoSampleOnSession(session.inputs),
     twoStep: two.twoStep,
     twoStepReason: two.reason,
     secrRequested,

@@ -9,9 +9,11 @@ import {
 import type { SecrProgressView } from '../../../shared/estimate-api';
 import { ClosedResults } from './closed-results';
 import { DetectionMap } from './detection-map';
+import { formatInterval, formatNumber } from './estimate-format';
 import type { CaptureRow, TrapRow } from './estimate-input';
 import { SecrResults } from './secr-results';
 import { TwoStepTable } from './two-step-table';
+import { WarningList } from './warning-list';
 
 /** SECR traps and captures of a session (stations by code, individuals by code). */
 export function secrRows(inputs: SessionInputs): { traps: TrapRow[]; captures: CaptureRow[] } {
@@ -32,7 +34,7 @@ export function secrRows(inputs: SessionInputs): { traps: TrapRow[]; captures: C
 /** What the models gave on a session: abundance, density, the two-step comparison and the map. */
 @Component({
   selector: 'mac-session-results',
-  imports: [ClosedResults, DetectionMap, MatProgressBar, SecrResults, TwoStepTable],
+  imports: [ClosedResults, DetectionMap, MatProgressBar, SecrResults, TwoStepTable, WarningList],
   template: `
     @let r = results();
     <p class="policy" data-testid="flank-policy">
@@ -44,6 +46,20 @@ export function secrRows(inputs: SessionInputs): { traps: TrapRow[]; captures: C
       <mac-closed-results [result]="closed" />
     } @else {
       <p class="muted" role="status">No abundance estimate: {{ r.closedReason }}</p>
+    }
+
+    @if (r.twoSample; as two) {
+      <h3>Two occasions: two samples</h3>
+      @if (two.reason) {
+        <p class="muted" role="status">No two-sample estimate: {{ two.reason }}</p>
+      } @else {
+        <p data-testid="two-sample">
+          Chapman (1951) N̂ = {{ fmt(two.chapman.N) }}, 95 % CI
+          {{ interval(two.chapman.ci) }} (log-normal); Lincoln–Petersen N̂ =
+          {{ fmt(two.lincolnPetersen.N) }}.
+        </p>
+        <mac-warning-list [warnings]="two.warnings" label="About the two-sample estimate" />
+      }
     }
 
     <h3>Density (SECR)</h3>
@@ -99,6 +115,8 @@ export class SessionResults {
   readonly showMap = input(true);
 
   protected readonly rows = computed(() => secrRows(this.inputs()));
+  protected readonly fmt = formatNumber;
+  protected readonly interval = formatInterval;
   protected readonly percent = computed(() => Math.round(100 * (this.progress()?.fraction ?? 0)));
   protected readonly policyLabel = computed(
     () => FLANK_POLICY_LABELS[this.inputs().parameters.flankPolicy],
