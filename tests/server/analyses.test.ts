@@ -217,6 +217,41 @@ describe('saved analyses', () => {
     expect(done.progress).toBeNull();
   });
 
+  it('should page the list newest first without repeating an analysis', async () => {
+    const all = await ctx.db
+      .selectFrom('analyses')
+      .select('id')
+      .orderBy('created_at', 'desc')
+      .orderBy('id', 'desc')
+      .execute();
+    expect(all.length).toBeGreaterThanOrEqual(4);
+    const seen: string[] = [];
+    let next: string | null = null;
+    do {
+      const res = await ecologist.get(
+        url(`/analyses?limit=2${next ? `&after=${encodeURIComponent(next)}` : ''}`),
+      );
+      expect(res.status).toBe(200);
+      seen.push(...res.body.items.map((a: { id: string }) => a.id));
+      next = res.body.next;
+    } while (next);
+    expect(seen).toEqual(all.map((a) => a.id));
+  });
+
+  it('should report a density fit cut off by a restart as failed, not as running forever', async () => {
+    const saved = await save('Cut off', ALL);
+    // As a server that stopped mid-fit leaves it: still running, with no fit in this process.
+    await ctx.db
+      .updateTable('analyses')
+      .set({ status: 'running' })
+      .where('id', '=', saved.id)
+      .execute();
+    const read1 = await read(saved.id);
+    expect(read1.status).toBe('failed');
+    expect(read1.error).toContain('stopped while the density fit was running');
+    expect(read1.results.secrReason).toBe(read1.error);
+  });
+
   it('should refuse an analysis without a name and answer 404 for an unknown one', async () => {
     const nameless = await ecologist.post(url('/analyses'), { session: ALL });
     expect(nameless.status).toBe(400);
