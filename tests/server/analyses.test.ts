@@ -87,7 +87,7 @@ describe('running models on a session', () => {
     expect(res.status).toBe(200);
     const { results } = res.body as { results: AnalysisDetail['results'] };
     // Pooled histories (48 h): I1 11, I2 11, I3 01, I4 11, I6 10, so M = 4, C = 4, R = 3.
-    // Chapman (1951): (M+1)(C+1)/(R+1) − 1 = 25/4 − 1 = 5.25; Lincoln–Petersen MC/R = 16/3 [D].
+    // Chapman (1951): (M+1)(C+1)/(R+1) − 1 = 25/4 − 1 = 5.25; Lincoln–Petersen MC/R = 16/3 (arithmetic by hand).
     expect(results.twoSample?.chapman.N).toBeCloseTo(5.25, 10);
     expect(results.twoSample?.lincolnPetersen.N).toBeCloseTo(16 / 3, 10);
     const four = await ecologist.post(url('/sessions/estimate'), { session: ALL });
