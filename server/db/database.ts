@@ -2,6 +2,7 @@ import SQLite from 'better-sqlite3';
 import { mkdirSync } from 'node:fs';
 import { dirname } from 'node:path';
 import { Kysely, SqliteDialect } from 'kysely';
+import type { AnalysesTable } from './schema/analyses.table';
 import type { AuditLogTable, MailMessagesTable } from './schema/audit.table';
 import type { DuplicateDismissalsTable, IdentityChangesTable } from './schema/curate.table';
 import type {
@@ -53,6 +54,7 @@ export interface Database {
   calls: CallsTable;
   identity_changes: IdentityChangesTable;
   duplicate_dismissals: DuplicateDismissalsTable;
+  analyses: AnalysesTable;
 }
 
 /** The app's database handle. */

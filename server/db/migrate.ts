@@ -5,6 +5,7 @@ import * as m0002 from './migrations/0002_ingest';
 import * as m0003 from './migrations/0003_sort';
 import * as m0004 from './migrations/0004_identify';
 import * as m0005 from './migrations/0005_curate';
+import * as m0006 from './migrations/0006_analyses';
 import * as m0007 from './migrations/0007_exports';
 
 /** Migrations in order; imported statically so they work the same under tsx, tests and builds. */
@@ -14,6 +15,7 @@ const MIGRATIONS: Record<string, Migration> = {
   '0003_sort': m0003,
   '0004_identify': m0004,
   '0005_curate': m0005,
+  '0006_analyses': m0006,
   '0007_exports': m0007,
 };
 
