@@ -34,7 +34,15 @@ export const sheetParamsSchema = z
   })
   .strict();
 
-export const sheetQuerySchema = z.object({ sessionId: z.string().optional() }).strict();
+/** Capture histories and effort grids come from a saved analysis (its data freeze). */
+export const sheetQuerySchema = z
+  .object({
+    analysisId: z
+      .string()
+      .regex(/^[0-9a-f]{20}$/, 'analysisId is not a valid id.')
+      .optional(),
+  })
+  .strict();
 
 /** What an export will contain, shown before downloading. */
 export interface ExportPreview {

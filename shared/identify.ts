@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { hasSomeField } from './patch';
 import type { AgeClass, Crop, Flank, Quality, Sex, SightingState } from './sort';
 
 const id = (what: string) =>
@@ -63,7 +64,8 @@ export const updateIndividualBodySchema = z
     tags: z.array(tag).max(30),
   })
   .partial()
-  .strict();
+  .strict()
+  .refine(hasSomeField, { message: 'Send at least one field to change.' });
 
 /** Body of `PUT /api/projects/:slug/individuals/:id/references`. */
 export const referencesBodySchema = z

@@ -23,7 +23,13 @@ import { streamCamtrapZip } from '../services/exports/camtrap-zip';
 import { generalizationText } from '../services/exports/coordinates';
 import { darwinCoreCsv } from '../services/exports/darwin-core';
 import { buildExportModel, type ExportModel } from '../services/exports/export-model';
-import { catalogueSheet, sightingsSheet } from '../services/exports/sheets.service';
+import {
+  catalogueSheet,
+  effortSheet,
+  historiesSheet,
+  sightingsSheet,
+} from '../services/exports/sheets.service';
+import { roleAtLeast } from '../../shared/roles';
 import { sheetCsv, workbook, type Sheet } from '../services/exports/spreadsheets';
 import { readZip } from '../services/exports/zip-reader';
 import { precisionFor } from '../services/stations.service';
@@ -96,7 +102,23 @@ function sendSheets(
 export function exportsRoutes(deps: AppDeps): Router {
   const { db, ingest } = deps;
   const router = Router();
-  const sheetBuilders: Partial<Record<SheetName, (req: Request) => Promise<Sheet>>> = {
+  const analysesOnly = (req: Request) => {
+    if (!roleAtLeast(projectOf(req).role, 'ecologist')) {
+      throw new ApiError(
+        'forbidden',
+        'Capture histories and effort grids are for the project’s ecologists.',
+      );
+    }
+  };
+  const sheetBuilders: Record<SheetName, (req: Request, analysisId?: string) => Promise<Sheet>> = {
+    histories: (req, analysisId) => {
+      analysesOnly(req);
+      return historiesSheet(db, projectOf(req).row, analysisId);
+    },
+    effort: (req, analysisId) => {
+      analysesOnly(req);
+      return effortSheet(db, projectOf(req).row, analysisId);
+    },
     catalogue: (req) => catalogueSheet(db, projectOf(req).row),
     sightings: (req) => {
       const { row, role, viaAdmin } = projectOf(req);
@@ -189,10 +211,15 @@ export function exportsRoutes(deps: AppDeps): Router {
     projectRole(db, 'reviewer', { allowAdmin: true }),
     async (req, res) => {
       const params = parseWith(sheetParamsSchema, req.params, 'params');
-      parseWith(sheetQuerySchema, req.query, 'query');
+      const query = parseWith(sheetQuerySchema, req.query, 'query');
       const build = sheetBuilders[params.sheet];
-      if (!build) throw new ApiError('not_found', `There is no ${params.sheet} spreadsheet.`);
-      await sendSheets(res, projectOf(req).row.slug, params.sheet, params.format, await build(req));
+      await sendSheets(
+        res,
+        projectOf(req).row.slug,
+        params.sheet,
+        params.format,
+        await build(req, query.analysisId),
+      );
     },
   );
 

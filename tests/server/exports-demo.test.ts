@@ -429,6 +429,80 @@ describe('spreadsheets', () => {
     }
   });
 
+  it('should give the capture histories and effort grid of a saved analysis, matching its frozen inputs', async () => {
+    const saved = await ecologist.post(`/api/projects/${DEMO_SLUG}/analyses`, {
+      name: 'Export check',
+      session: {
+        start: '2026-07-01T00:00:00+03:00',
+        end: '2026-08-30T00:00:00+03:00',
+        flankPolicy: 'left',
+      },
+    });
+    expect(saved.status, JSON.stringify(saved.body)).toBe(201);
+    const inputs = saved.body.inputs as {
+      individuals: { code: string }[];
+      histories: string[];
+      stations: { code: string }[];
+      effort: number[][];
+      occasions: unknown[];
+    };
+    const histories = parseTable(
+      (
+        await download(
+          ecologist,
+          `/api/projects/${DEMO_SLUG}/exports/sheets/histories.csv?analysisId=${saved.body.id}`,
+        )
+      ).body.toString('utf8'),
+    );
+    expect(histories.header.slice(0, 3)).toEqual([
+      'Individual',
+      'Capture history',
+      'Occasions detected',
+    ]);
+    expect(histories.header).toHaveLength(3 + inputs.occasions.length);
+    expect(histories.header[3]).toBe('Occasion 1 (2026-07-01 00:00)');
+    expect(histories.rows.map((r) => [r['Individual'], r['Capture history']])).toEqual(
+      inputs.individuals.map((ind, i) => [ind.code, inputs.histories[i]]),
+    );
+    for (const r of histories.rows)
+      expect(Number(r['Occasions detected'])).toBe(
+        [...r['Capture history']!].filter((c) => c === '1').length,
+      );
+    const effort = await download(
+      ecologist,
+      `/api/projects/${DEMO_SLUG}/exports/sheets/effort.xlsx?analysisId=${saved.body.id}`,
+    );
+    expect(effort.status).toBe(200);
+    const book = new ExcelJS.Workbook();
+    await book.xlsx.load(effort.body as unknown as ArrayBuffer);
+    const sheet = book.worksheets[0]!;
+    expect(sheet.rowCount).toBe(inputs.stations.length + 1);
+    expect(sheet.getRow(2).getCell(1).value).toBe(inputs.stations[0]!.code);
+    expect(sheet.getRow(2).getCell(3).value).toBe(inputs.effort[0]![0]);
+    // Histories need a saved analysis, and are the ecologist's (like the analyses themselves).
+    const without = await ecologist.get(`/api/projects/${DEMO_SLUG}/exports/sheets/histories.csv`);
+    expect(without.status).toBe(400);
+    expect(without.body.error.message).toMatch(/saved analysis/);
+    expect(
+      (
+        await ecologist.get(
+          `/api/projects/${DEMO_SLUG}/exports/sheets/effort.csv?analysisId=0123456789abcdef0123`,
+        )
+      ).status,
+    ).toBe(404);
+    expect(
+      (await ecologist.get(`/api/projects/${DEMO_SLUG}/exports/sheets/effort.csv?analysisId=nope`))
+        .status,
+    ).toBe(400);
+    expect(
+      (
+        await reviewer.get(
+          `/api/projects/${DEMO_SLUG}/exports/sheets/histories.csv?analysisId=${saved.body.id}`,
+        )
+      ).status,
+    ).toBe(403);
+  }, 120_000);
+
   it('should refuse spreadsheets to volunteers and unknown sheets or formats', async () => {
     expect(
       (await volunteer.get(`/api/projects/${DEMO_SLUG}/exports/sheets/catalogue.csv`)).status,

@@ -1,4 +1,7 @@
+import type { SessionInputs } from '../../../shared/analyses';
+import { utcToWall } from '../../../shared/zoned-time';
 import type { Db } from '../../db/database';
+import { ApiError } from '../../errors/api-error';
 import type { ProjectsTable } from '../../db/schema/projects.table';
 import { generalise } from '../geo';
 import { catalogueEntries } from '../individuals.service';
@@ -137,6 +140,74 @@ export async function sightingsSheet(
         r.age_class,
         r.photo,
       ];
+    }),
+  };
+}
+
+/** The frozen inputs of a saved analysis, or a clear error. */
+async function frozenInputs(db: Db, project: ProjectsTable, analysisId: string | undefined) {
+  if (!analysisId) {
+    throw new ApiError(
+      'validation_failed',
+      'Capture histories and effort grids come from a saved analysis: add ?analysisId=…',
+    );
+  }
+  const row = await db
+    .selectFrom('analyses')
+    .select(['name', 'inputs'])
+    .where('id', '=', analysisId)
+    .where('project_id', '=', project.id)
+    .executeTakeFirst();
+  if (!row) throw new ApiError('not_found', 'There is no such saved analysis in this project.');
+  return { name: row.name, inputs: JSON.parse(row.inputs) as SessionInputs };
+}
+
+function occasionHeaders(inputs: SessionInputs, timezone: string): string[] {
+  return inputs.occasions.map(
+    (o, s) => `Occasion ${s + 1} (${utcToWall(o.start, timezone).slice(0, 16).replace('T', ' ')})`,
+  );
+}
+
+/** Capture histories of a saved analysis: one row per individual, one 0/1 column per occasion. */
+export async function historiesSheet(
+  db: Db,
+  project: ProjectsTable,
+  analysisId: string | undefined,
+): Promise<Sheet> {
+  const { name, inputs } = await frozenInputs(db, project, analysisId);
+  return {
+    name: `Histories ${name}`,
+    header: [
+      'Individual',
+      'Capture history',
+      'Occasions detected',
+      ...occasionHeaders(inputs, project.timezone),
+    ],
+    rows: inputs.individuals.map((individual, i) => {
+      const history = inputs.histories[i] ?? '';
+      return [
+        individual.code,
+        history,
+        [...history].filter((c) => c === '1').length,
+        ...[...history].map(Number),
+      ];
+    }),
+  };
+}
+
+/** Effort grid of a saved analysis: one row per station, days with a working camera per occasion. */
+export async function effortSheet(
+  db: Db,
+  project: ProjectsTable,
+  analysisId: string | undefined,
+): Promise<Sheet> {
+  const { name, inputs } = await frozenInputs(db, project, analysisId);
+  return {
+    name: `Effort ${name}`,
+    header: ['Station', 'Days active in total', ...occasionHeaders(inputs, project.timezone)],
+    rows: inputs.stations.map((station, k) => {
+      const days = inputs.effort[k] ?? [];
+      return [station.code, Math.round(days.reduce((a, b) => a + b, 0) * 1000) / 1000, ...days];
     }),
   };
 }

@@ -6,6 +6,7 @@ import { MatProgressBar } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
 import type { ImportResponse } from '../../../shared/exports';
 import { apiErrorMessage } from '../core/api-error';
+import { AuthStore } from '../core/auth-store';
 import { CautionNote } from '../ui/caution-note';
 
 /** The admin's data tools: a consistent backup of the whole instance, and Camtrap DP imports. */
@@ -129,6 +130,7 @@ import { CautionNote } from '../ui/caution-note';
 })
 export class DataPage {
   private readonly http = inject(HttpClient);
+  private readonly auth = inject(AuthStore);
   protected readonly busy = signal(false);
   protected readonly stage = signal('');
   protected readonly progress = signal<number | null>(null);
@@ -160,7 +162,9 @@ export class DataPage {
               this.progress.set(null);
             }
           } else if (event.type === HttpEventType.Response && event.body) {
-            this.result.set(event.body);
+            const body = event.body;
+            // The importer is now the new project's ecologist: reload who we are before linking there.
+            void this.auth.refresh().then(() => this.result.set(body));
           }
         },
         error: (err: unknown) => {

@@ -1,6 +1,7 @@
 import { HttpClient, HttpParams } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { firstValueFrom } from 'rxjs';
+import type { AnalysisListItem } from '../../../shared/analyses';
 import type { ExportPreview } from '../../../shared/exports';
 
 /** The options of an export, as the page holds them. */
@@ -41,7 +42,16 @@ export class ExportsApi {
     return `/api/projects/${slug}/exports/dwc${query(rest)}`;
   }
 
-  sheetUrl(slug: string, sheet: string, format: 'csv' | 'xlsx'): string {
-    return `/api/projects/${slug}/exports/sheets/${sheet}.${format}`;
+  sheetUrl(slug: string, sheet: string, format: 'csv' | 'xlsx', analysisId?: string): string {
+    const query = analysisId ? `?analysisId=${analysisId}` : '';
+    return `/api/projects/${slug}/exports/sheets/${sheet}.${format}${query}`;
+  }
+
+  /** Saved analyses (newest first), whose frozen histories and effort grids can be downloaded. */
+  async analyses(slug: string): Promise<AnalysisListItem[]> {
+    const page = await firstValueFrom(
+      this.http.get<{ items: AnalysisListItem[] }>(`/api/projects/${slug}/analyses?limit=100`),
+    );
+    return page.items;
   }
 }

@@ -1,4 +1,6 @@
-import { DecimalPipe } from '@angular/common';
+import { DatePipe, DecimalPipe } from '@angular/common';
+import { MatFormField, MatLabel } from '@angular/material/form-field';
+import { MatOption, MatSelect } from '@angular/material/select';
 import {
   ChangeDetectionStrategy,
   Component,
@@ -14,6 +16,7 @@ import { MatCheckbox } from '@angular/material/checkbox';
 import { MatIcon } from '@angular/material/icon';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { MatRadioButton, MatRadioGroup } from '@angular/material/radio';
+import type { AnalysisListItem } from '../../../shared/analyses';
 import type { ExportPreview } from '../../../shared/exports';
 import { apiErrorMessage } from '../core/api-error';
 import { ProjectStore } from '../core/project-store';
@@ -47,6 +50,11 @@ const FEATURE_TEXT: Partial<Record<string, string>> = {
     MatAnchor,
     MatIcon,
     MatProgressBar,
+    MatFormField,
+    MatLabel,
+    MatSelect,
+    MatOption,
+    DatePipe,
     CautionNote,
   ],
   templateUrl: './exports-page.html',
@@ -95,12 +103,41 @@ export class ExportsPage {
     })),
   );
 
+  protected readonly analyses = signal<AnalysisListItem[]>([]);
+  protected readonly analysisId = signal<string>('');
+  protected readonly analysisSheets = computed(() => {
+    const id = this.analysisId();
+    if (!id) return [];
+    return [
+      { title: 'Capture histories', name: 'histories' },
+      { title: 'Effort grid', name: 'effort' },
+    ].map((s) => ({
+      ...s,
+      csv: this.api.sheetUrl(this.slug(), s.name, 'csv', id),
+      xlsx: this.api.sheetUrl(this.slug(), s.name, 'xlsx', id),
+    }));
+  });
+
   constructor() {
+    effect(() => {
+      const slug = this.slug();
+      if (slug && this.mayExportPrivate()) void this.loadAnalyses(slug);
+    });
     effect(() => {
       const slug = this.slug();
       const options = this.options();
       if (slug) void this.load(slug, options);
     });
+  }
+
+  private async loadAnalyses(slug: string): Promise<void> {
+    try {
+      const list = (await this.api.analyses(slug)).filter((a) => a.status === 'done');
+      this.analyses.set(list);
+      if (list[0] && !this.analysisId()) this.analysisId.set(list[0].id);
+    } catch (err) {
+      this.error.set(apiErrorMessage(err));
+    }
   }
 
   private async load(slug: string, options: ExportOptions): Promise<void> {
