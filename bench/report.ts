@@ -55,6 +55,9 @@ export function percentile(values: number[], p: number): number {
   return sorted[rank - 1]!;
 }
 
+// Linux reports CPU time in USER_HZ ticks, 100 per second on every common configuration.
+const TICKS_PER_SECOND = 100;
+
 function readTicks(path: string, pick: (fields: string[]) => number): number {
   try {
     return pick(readFileSync(path, 'utf8').trim().split(/\s+/));
@@ -75,6 +78,11 @@ function processTicks(pid: number): number {
   return readTicks(`/proc/${pid}/stat`, (f) => Number(f[13]) + Number(f[14]));
 }
 
+/** CPU time a process has used so far (all its threads), in seconds; 0 once it has exited. */
+export function processCpuSeconds(pid: number): number {
+  return processTicks(pid) / TICKS_PER_SECOND;
+}
+
 /** What the rest of the machine did during a measurement, so figures can be judged. */
 export interface MachineLoad {
   cores: number;
@@ -84,10 +92,10 @@ export interface MachineLoad {
   otherCpuSeconds: number;
   /** The same as an average number of busy cores over the measurement. */
   otherBusyCores: number;
+  /** CPU time of the benchmark's own processes (itself and the server it started). */
+  ownCpuSeconds: number;
   seconds: number;
 }
-
-const TICKS_PER_SECOND = 100;
 
 /**
  * Measures the CPU time other processes use while the benchmark runs: machine busy time from
@@ -117,6 +125,7 @@ export class LoadMeter {
       loadAverage1mAtEnd: round(loadavg()[0]!, 2),
       otherCpuSeconds: round(other, 1),
       otherBusyCores: round(other / Math.max(seconds, 1e-9), 2),
+      ownCpuSeconds: round(ownTicks / TICKS_PER_SECOND, 1),
       seconds: round(seconds, 1),
     };
   }
@@ -127,6 +136,6 @@ export function describeLoad(load: MachineLoad): string {
   return (
     `machine: ${load.cores} cores; load average ${load.loadAverage1mAtStart} → ` +
     `${load.loadAverage1mAtEnd}; other processes used ${load.otherCpuSeconds} core-s ` +
-    `(${load.otherBusyCores} cores on average) over ${load.seconds} s`
+    `(${load.otherBusyCores} cores on average) over ${load.seconds} s; ours ${load.ownCpuSeconds} core-s`
   );
 }

@@ -130,7 +130,7 @@ export async function diagnoseQueue(
       const row = { leased, oldestMs: NaN, stationMs: NaN };
       for (const order of ['oldest', 'station'] as const) {
         const query = sortNextQuerySchema.parse({ limit: 10, order });
-        const timed = await timeRepeated(events, 10, () =>
+        const timed = await timeRepeated(events, 20, () =>
           leaseNext(db, project, user, 'reviewer', query),
         );
         row[order === 'oldest' ? 'oldestMs' : 'stationMs'] = round(timed.median, 2);

@@ -5,7 +5,7 @@
  * Latencies are recorded per response, so the percentiles (p95 included) are exact.
  */
 import autocannon from 'autocannon';
-import { percentile, round } from './report';
+import { percentile, processCpuSeconds, round } from './report';
 
 /** One URL to measure. */
 export interface Scenario {
@@ -25,9 +25,13 @@ export interface ScenarioFigures {
   p95Ms: number;
   p99Ms: number;
   maxMs: number;
+  /** CPU time the server process spent per request (all its threads), from /proc. */
+  serverCpuMsPerRequest: number;
   /** Answers by HTTP status (anything but 200 is a failed request). */
   statuses: Record<string, number>;
+  /** Connection errors, timeouts (no answer within 10 s) included. */
   errors: number;
+  timeouts: number;
 }
 
 interface Slice {
@@ -35,9 +39,17 @@ interface Slice {
   statuses: Map<number, number>;
   seconds: number;
   errors: number;
+  timeouts: number;
+  serverCpuSeconds: number;
 }
 
-function runSlice(url: string, cookies: string[], seconds: number): Promise<Slice> {
+function runSlice(
+  url: string,
+  cookies: string[],
+  seconds: number,
+  serverPid: number,
+): Promise<Slice> {
+  const cpu0 = processCpuSeconds(serverPid);
   return new Promise((resolve, reject) => {
     const latencies: number[] = [];
     const statuses = new Map<number, number>();
@@ -51,7 +63,14 @@ function runSlice(url: string, cookies: string[], seconds: number): Promise<Slic
       },
       (err, result) => {
         if (err) return reject(err instanceof Error ? err : new Error(String(err)));
-        resolve({ latencies, statuses, seconds: result.duration, errors: result.errors });
+        resolve({
+          latencies,
+          statuses,
+          seconds: result.duration,
+          errors: result.errors,
+          timeouts: result.timeouts,
+          serverCpuSeconds: processCpuSeconds(serverPid) - cpu0,
+        });
       },
     );
     instance.on('response', (_client, status, _bytes, ms) => {
@@ -78,29 +97,38 @@ function summarise(scenario: Scenario, slices: Slice[]): ScenarioFigures {
     p95Ms: round(percentile(latencies, 95), 2),
     p99Ms: round(percentile(latencies, 99), 2),
     maxMs: round(Math.max(...latencies), 2),
+    serverCpuMsPerRequest: round(
+      (slices.reduce((s, x) => s + x.serverCpuSeconds, 0) * 1000) / latencies.length,
+      3,
+    ),
     statuses,
     errors: slices.reduce((s, x) => s + x.errors, 0),
+    timeouts: slices.reduce((s, x) => s + x.timeouts, 0),
   };
 }
 
 /**
  * Measures every scenario for `seconds` in total, in `rounds` interleaved slices, after a
- * two-second warm-up of each; `cookies` holds one session cookie per connection.
+ * two-second warm-up of each; `cookies` holds one session cookie per connection, `serverPid` is
+ * the server process whose CPU time is counted.
  */
 export async function measureScenarios(
   base: string,
+  serverPid: number,
   scenarios: Scenario[],
   cookies: string[],
   seconds: number,
   rounds: number,
   onSlice?: (name: string, round: number) => void,
 ): Promise<ScenarioFigures[]> {
-  for (const s of scenarios) await runSlice(`${base}${s.path}`, cookies, 2);
+  for (const s of scenarios) await runSlice(`${base}${s.path}`, cookies, 2, serverPid);
   const slices = new Map<string, Slice[]>(scenarios.map((s) => [s.name, []]));
   for (let r = 0; r < rounds; r++) {
     for (const s of scenarios) {
       onSlice?.(s.name, r);
-      slices.get(s.name)!.push(await runSlice(`${base}${s.path}`, cookies, seconds / rounds));
+      slices
+        .get(s.name)!
+        .push(await runSlice(`${base}${s.path}`, cookies, seconds / rounds, serverPid));
     }
   }
   return scenarios.map((s) => summarise(s, slices.get(s.name)!));

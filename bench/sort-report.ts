@@ -40,7 +40,7 @@ export function printSortReport(run: SortRun): object {
   console.log(
     `\nSort queue: ${run.size.photos} photos in ${run.size.events} events (synthetic), ` +
       `${run.size.stations} stations, ${run.size.reviewers} reviewers each with its own session, ` +
-      `${run.size.sorted * 100}% already sorted; database built in ${run.project.seconds.toFixed(1)} s`,
+      `${run.size.sorted * 100}% already sorted (database built once in ${run.project.seconds.toFixed(0)} s, cached)`,
   );
   printTable(
     [
@@ -52,7 +52,9 @@ export function printSortReport(run: SortRun): object {
       'p99 ms',
       'max ms',
       'non-200',
+      'errors',
       'p95 / trivial',
+      'server CPU ms/req',
     ],
     run.figures.map((f, i) => [
       f.name,
@@ -62,8 +64,10 @@ export function printSortReport(run: SortRun): object {
       f.p95Ms,
       f.p99Ms,
       f.maxMs,
-      f.requests - (f.statuses['200'] ?? 0) + f.errors,
+      String(f.requests - (f.statuses['200'] ?? 0)),
+      `${f.errors} (${f.timeouts} timeouts)`,
       i === 0 ? '1×' : `${(f.p95Ms / trivial.p95Ms).toFixed(2)}×`,
+      f.serverCpuMsPerRequest,
     ]),
   );
   for (const v of verdicts) {
@@ -73,6 +77,18 @@ export function printSortReport(run: SortRun): object {
         (v.allAnswered ? '' : '; some requests failed'),
     );
   }
+  // A single-threaded server shared by N closed-loop clients answers each after about N requests'
+  // worth of CPU, so clients × CPU per request is what the mean latency tends to on a free core.
+  console.log(
+    `mean latency a free core would give ${run.size.reviewers} closed-loop clients ` +
+      `(clients × server CPU per request): ` +
+      run.figures
+        .map(
+          (f) =>
+            `${f.name.split(':')[0]} ${(run.size.reviewers * f.serverCpuMsPerRequest).toFixed(1)} ms`,
+        )
+        .join(', '),
+  );
   console.log(
     `first batch per reviewer: ${run.firstBatch.distinct} distinct events, ${run.firstBatch.photos} ` +
       `thumbnail URLs; active leases after the run: ${run.leases?.leased ?? '?'} events held by ` +
@@ -101,6 +117,9 @@ export function printSortReport(run: SortRun): object {
     endpoints: run.figures,
     verdicts,
     targets: { p95Ms: TARGET_P95_MS, ratioToTrivial: TARGET_RATIO },
+    meanLatencyOnFreeCoreMs: Object.fromEntries(
+      run.figures.map((f) => [f.name, round(run.size.reviewers * f.serverCpuMsPerRequest, 1)]),
+    ),
     firstBatch: run.firstBatch,
     leasesAfterRun: run.leases,
     inProcess: run.diagnosis,

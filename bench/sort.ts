@@ -149,6 +149,7 @@ async function main(): Promise<void> {
       ];
       const figures = await measureScenarios(
         server.base,
+        server.pid,
         scenarios,
         sessions.map((s) => s.sessionCookie),
         seconds,
