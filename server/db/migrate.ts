@@ -7,6 +7,7 @@ import * as m0004 from './migrations/0004_identify';
 import * as m0005 from './migrations/0005_curate';
 import * as m0006 from './migrations/0006_analyses';
 import * as m0007 from './migrations/0007_exports';
+import * as m0008 from './migrations/0008_sort_queue';
 
 /** Migrations in order; imported statically so they work the same under tsx, tests and builds. */
 const MIGRATIONS: Record<string, Migration> = {
@@ -17,6 +18,7 @@ const MIGRATIONS: Record<string, Migration> = {
   '0005_curate': m0005,
   '0006_analyses': m0006,
   '0007_exports': m0007,
+  '0008_sort_queue': m0008,
 };
 
 class StaticProvider implements MigrationProvider {
