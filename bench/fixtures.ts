@@ -2,6 +2,17 @@
  * The project, accounts and stations a benchmark starts from, written straight into a freshly
  * migrated database through the app's own services (before the server is started on it).
  */
+import {
+  copyFileSync,
+  existsSync,
+  mkdirSync,
+  mkdtempSync,
+  readFileSync,
+  renameSync,
+  rmSync,
+  writeFileSync,
+} from 'node:fs';
+import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { openDatabase, type Db } from '../server/db/database';
 import { migrateToLatest } from '../server/db/migrate';
@@ -10,6 +21,7 @@ import { setMemberRole } from '../server/services/members.service';
 import { createProject } from '../server/services/projects.service';
 import { createUser } from '../server/services/users.service';
 import type { ProjectRole } from '../shared/roles';
+import { OUT_DIR } from './report';
 
 /** Password of every benchmark account (local throwaway databases only). */
 export const BENCH_PASSWORD = 'benchmark-password-2026';
@@ -87,4 +99,32 @@ export async function createMembers(
     users.push({ id: u.id, email: u.email });
   }
   return users;
+}
+
+/**
+ * A benchmark database built once and cached as bench/.out/<key>.sqlite (with what `build` returned
+ * in <key>.json), then copied into `dataDir` as maculo.sqlite for each run (a run writes to it).
+ * `build` gets an empty folder of its own and must leave its database there as maculo.sqlite.
+ */
+export async function cachedDatabase<T>(
+  key: string,
+  dataDir: string,
+  build: (buildDir: string) => Promise<T>,
+): Promise<T> {
+  const cacheDb = join(OUT_DIR, `${key}.sqlite`);
+  const cacheMeta = join(OUT_DIR, `${key}.json`);
+  if (!existsSync(cacheDb) || !existsSync(cacheMeta)) {
+    const buildDir = mkdtempSync(join(tmpdir(), `maculo-bench-build-`));
+    try {
+      const built = await build(buildDir);
+      mkdirSync(OUT_DIR, { recursive: true });
+      copyFileSync(join(buildDir, 'maculo.sqlite'), `${cacheDb}.part`);
+      renameSync(`${cacheDb}.part`, cacheDb);
+      writeFileSync(cacheMeta, JSON.stringify(built));
+    } finally {
+      rmSync(buildDir, { recursive: true, force: true });
+    }
+  }
+  copyFileSync(cacheDb, join(dataDir, 'maculo.sqlite'));
+  return JSON.parse(readFileSync(cacheMeta, 'utf8')) as T;
 }

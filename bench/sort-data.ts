@@ -5,8 +5,9 @@
  * queue hands out thumbnail URLs, never bytes). Bulk inserts of 500 rows per transaction. Synthetic.
  */
 import { randomBytes } from 'node:crypto';
-import type { Db } from '../server/db/database';
+import type { Database, Db } from '../server/db/database';
 import type { EventsTable, PhotosTable } from '../server/db/schema/ingest.table';
+import type { ProjectsTable } from '../server/db/schema/projects.table';
 import { newId } from '../server/services/ids';
 import { Rng } from '../seeds/photos/random';
 import { createBenchProject, createMembers, openBenchDb, type BenchUser } from './fixtures';
@@ -34,10 +35,11 @@ const CHUNK = 500;
 const SEASON_START = Date.parse('2026-01-01T00:00:00Z');
 const YEAR_MS = 365 * 86_400_000;
 
-async function insertChunked<T extends 'events' | 'photos'>(
+/** Inserts rows into a table in transactions of 500. */
+export async function insertChunked<T extends keyof Database>(
   db: Db,
   table: T,
-  rows: T extends 'events' ? EventsTable[] : PhotosTable[],
+  rows: readonly Database[T][],
 ): Promise<void> {
   for (let i = 0; i < rows.length; i += CHUNK) {
     const part = rows.slice(i, i + CHUNK);
@@ -163,15 +165,20 @@ function photoRow(
   };
 }
 
-/** Builds the project in a new database under `dataDir`; returns ids and the reviewer accounts. */
-export async function buildSortProject(
+/**
+ * Builds the project in a new database under `dataDir`; returns ids and the reviewer accounts.
+ * `extend` may add more to the same database before it is closed (another benchmark's rows).
+ */
+export async function buildSortProject<T = object>(
   dataDir: string,
   size: SortProjectSize,
-): Promise<SortProject> {
+  slug = 'bench-sort',
+  extend?: (db: Db, project: ProjectsTable, lead: BenchUser) => Promise<T>,
+): Promise<SortProject & T> {
   const started = performance.now();
   const { db } = await openBenchDb(dataDir);
   try {
-    const { project, lead } = await createBenchProject(db, 'bench-sort');
+    const { project, lead } = await createBenchProject(db, slug);
     const reviewers = await createMembers(
       db,
       project,
@@ -228,7 +235,9 @@ export async function buildSortProject(
     }
     await insertChunked(db, 'events', events);
     await insertChunked(db, 'photos', photos);
+    const extra = (extend ? await extend(db, project, lead) : {}) as T;
     return {
+      ...extra,
       slug: project.slug,
       projectId: project.id,
       reviewers,

@@ -28,13 +28,14 @@ export interface QueueDiagnosis {
   foreignLeases: { leased: number; oldestMs: number; stationMs: number }[];
 }
 
-function median(values: number[]): number {
+/** Median of unsorted values. */
+export function median(values: number[]): number {
   const s = [...values].sort((a, b) => a - b);
   return s.length ? s[Math.floor(s.length / 2)]! : NaN;
 }
 
 /** A Kysely on the benchmark database that records every statement and its duration. */
-function loggingDb(path: string) {
+export function loggingDb(path: string) {
   const { sqlite } = openDatabase(path);
   const events: LogEvent[] = [];
   const db: Db = new Kysely<Database>({
@@ -50,7 +51,8 @@ function shortSql(sql: string): string {
   return sql.replace(/\s+/g, ' ').trim();
 }
 
-async function timeRepeated(events: LogEvent[], runs: number, call: () => Promise<unknown>) {
+/** Calls `call` `runs` times; its median time and each statement's parameters and times. */
+export async function timeRepeated(events: LogEvent[], runs: number, call: () => Promise<unknown>) {
   const totals: number[] = [];
   const byStatement = new Map<string, { params: readonly unknown[]; ms: number[] }>();
   for (let i = 0; i < runs; i++) {
@@ -66,6 +68,20 @@ async function timeRepeated(events: LogEvent[], runs: number, call: () => Promis
     }
   }
   return { median: median(totals), byStatement };
+}
+
+/** Each statement with SQLite's query plan for it and its median time. */
+export function profileStatements(
+  sqlite: ReturnType<typeof openDatabase>['sqlite'],
+  byStatement: Map<string, { params: readonly unknown[]; ms: number[] }>,
+): StatementProfile[] {
+  return [...byStatement].map(([sql, { params, ms }]) => ({
+    sql,
+    plan: (sqlite.prepare(`explain query plan ${sql}`).all(...params) as { detail: string }[]).map(
+      (row) => row.detail,
+    ),
+    medianMs: round(median(ms), 3),
+  }));
 }
 
 async function leaseHead(db: Db, projectId: string, count: number): Promise<void> {
@@ -112,13 +128,7 @@ export async function diagnoseQueue(
       );
       orders[order] = {
         serviceMedianMs: round(timed.median, 2),
-        statements: [...timed.byStatement].map(([sql, { params, ms }]) => ({
-          sql,
-          plan: (
-            sqlite.prepare(`explain query plan ${sql}`).all(...params) as { detail: string }[]
-          ).map((row) => row.detail),
-          medianMs: round(median(ms), 3),
-        })),
+        statements: profileStatements(sqlite, timed.byStatement),
       };
       await releaseLeases(db, projectId, reviewerId);
     }

@@ -121,7 +121,13 @@ export async function measureScenarios(
   rounds: number,
   onSlice?: (name: string, round: number) => void,
 ): Promise<ScenarioFigures[]> {
-  for (const s of scenarios) await runSlice(`${base}${s.path}`, cookies, 2, serverPid);
+  // Requests still queued in the server when a slice ends would otherwise be served during the
+  // next slice: wait for an answer to /api/health, which queues behind them, before going on.
+  const drained = async () => void (await (await fetch(`${base}/api/health`)).arrayBuffer());
+  for (const s of scenarios) {
+    await runSlice(`${base}${s.path}`, cookies, 2, serverPid);
+    await drained();
+  }
   const slices = new Map<string, Slice[]>(scenarios.map((s) => [s.name, []]));
   for (let r = 0; r < rounds; r++) {
     for (const s of scenarios) {
@@ -129,6 +135,7 @@ export async function measureScenarios(
       slices
         .get(s.name)!
         .push(await runSlice(`${base}${s.path}`, cookies, seconds / rounds, serverPid));
+      await drained();
     }
   }
   return scenarios.map((s) => summarise(s, slices.get(s.name)!));

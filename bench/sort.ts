@@ -8,23 +8,14 @@
  *
  * The built database is cached under bench/.out/ and copied for each run (a run leases events).
  */
-import {
-  copyFileSync,
-  existsSync,
-  mkdirSync,
-  mkdtempSync,
-  readFileSync,
-  renameSync,
-  rmSync,
-  writeFileSync,
-} from 'node:fs';
+import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { parseArgs } from 'node:util';
 import { openDatabase } from '../server/db/database';
 import { ApiSession, arrayField, isRecord, stringField } from './api-session';
-import { BENCH_PASSWORD } from './fixtures';
-import { LoadMeter, OUT_DIR, writeResult } from './report';
+import { BENCH_PASSWORD, cachedDatabase } from './fixtures';
+import { LoadMeter, writeResult } from './report';
 import { startServer } from './server-process';
 import { buildSortProject, type SortProject, type SortProjectSize } from './sort-data';
 import { diagnoseQueue } from './sort-diagnose';
@@ -59,25 +50,12 @@ function options() {
 }
 
 /** The built project, from the cache when the same size was built before. */
-async function cachedProject(size: SortProjectSize, dataDir: string): Promise<SortProject> {
+function cachedProject(size: SortProjectSize, dataDir: string): Promise<SortProject> {
   const key = `sort-db-${size.photos}p-${size.events}e-${size.stations}s-${size.reviewers}r-${size.sorted}`;
-  const cacheDb = join(OUT_DIR, `${key}.sqlite`);
-  const cacheMeta = join(OUT_DIR, `${key}.json`);
-  if (!existsSync(cacheDb) || !existsSync(cacheMeta)) {
+  return cachedDatabase(key, dataDir, (buildDir) => {
     console.log(`  building ${size.photos} photos in ${size.events} events (cached afterwards)…`);
-    const buildDir = mkdtempSync(join(tmpdir(), 'maculo-bench-sort-build-'));
-    try {
-      const built = await buildSortProject(buildDir, size);
-      mkdirSync(OUT_DIR, { recursive: true });
-      copyFileSync(join(buildDir, 'maculo.sqlite'), `${cacheDb}.part`);
-      renameSync(`${cacheDb}.part`, cacheDb);
-      writeFileSync(cacheMeta, JSON.stringify(built));
-    } finally {
-      rmSync(buildDir, { recursive: true, force: true });
-    }
-  }
-  copyFileSync(cacheDb, join(dataDir, 'maculo.sqlite'));
-  return JSON.parse(readFileSync(cacheMeta, 'utf8')) as SortProject;
+    return buildSortProject(buildDir, size);
+  });
 }
 
 /** Signs every reviewer in and checks each gets its own full batch of events with thumbnail URLs. */
