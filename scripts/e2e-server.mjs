@@ -19,6 +19,8 @@ const child = spawn('npx', ['tsx', 'server/main.ts'], {
     PUBLIC_URL: `http://127.0.0.1:${port}`,
     DATABASE_PATH: join(dir, 'maculo.sqlite'),
     UPLOADS_DIR: join(dir, 'uploads'),
+    // Painted demo photos survive between runs (the database and uploads do not).
+    DEMO_CACHE_DIR: join(root, 'tests/.tmp/demo-cache'),
     SESSION_SECRET: 'browser-tests-secret-browser-tests-secret',
     LOGIN_RATE_LIMIT: '1000',
     LOG_LEVEL: 'warn',

@@ -39,7 +39,7 @@ export interface DemoLeopard {
 
 const LOCAL_OFFSET_MS = 3 * 3600_000; // Africa/Nairobi, UTC+3 all year
 const SIGMA_M = 1200;
-const G0 = 0.04;
+const G0 = 0.05;
 const OTHERS: OtherSpecies[] = ['bushbuck', 'porcupine', 'honeyBadger', 'baboon', 'genet'];
 
 /** The demo's leopards: 14 animals with activity centres over the grid and a 1.5 km margin. */

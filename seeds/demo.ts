@@ -4,6 +4,7 @@ import type { IngestRuntime } from '../server/ingest-runtime';
 import { createProject } from '../server/services/projects.service';
 import { setProjectSpecies } from '../server/services/species.service';
 import { seedDemoPhotos } from './demo-photos';
+import { seedDemoIdentities, seedDemoReferences } from './demo-identities';
 import { seedDemoSorting } from './demo-sorting';
 import { SPECIES_NAMES } from './photos/species';
 import { setMemberRole } from '../server/services/members.service';
@@ -69,11 +70,22 @@ export async function seedDemo(db: Db, options: SeedOptions): Promise<boolean> {
     ingest: options.ingest,
     log: options.log,
   });
-  await seedDemoSorting(db, {
+  const sorted = await seedDemoSorting(db, {
     projectId: project.id,
     reviewerIds: [ids.get('reviewer@demo.test')!, ids.get('reviewer2@demo.test')!],
     photos,
-    sortedShare: 0.6,
+    sortedShare: 0.65,
+  });
+  await seedDemoIdentities(db, {
+    projectId: project.id,
+    firstReviewer: ids.get('reviewer@demo.test')!,
+    secondReviewer: ids.get('curator@demo.test')!,
+    sorted,
+  });
+  await seedDemoReferences(db, {
+    projectId: project.id,
+    curatorId: ids.get('curator@demo.test')!,
+    photos,
   });
   return true;
 }

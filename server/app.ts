@@ -1,3 +1,4 @@
+import type SQLite from 'better-sqlite3';
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import express, { type Express } from 'express';
@@ -14,12 +15,17 @@ import type { IngestRuntime } from './ingest-runtime';
 import type { Mailer } from './mail/mailer';
 import { csrfProtection, xsrfCookie } from './middleware/csrf';
 import { adminRoutes } from './routes/admin.routes';
+import { analysesRoutes } from './routes/analyses.routes';
 import { authRoutes } from './routes/auth.routes';
+import { exportsRoutes } from './routes/exports.routes';
 import { estimateRoutes } from './routes/estimate.routes';
 import { healthRoutes } from './routes/health.routes';
+import { identifyRoutes } from './routes/identify.routes';
+import { curateRoutes } from './routes/curate.routes';
 import { deploymentsRoutes } from './routes/deployments.routes';
 import { photosRoutes } from './routes/photos.routes';
 import { projectsRoutes } from './routes/projects.routes';
+import { sessionsRoutes } from './routes/sessions.routes';
 import { sortRoutes } from './routes/sort.routes';
 import { stationsRoutes } from './routes/stations.routes';
 import { uploadsRoutes } from './routes/uploads.routes';
@@ -31,6 +37,8 @@ export interface AppDeps {
   log: Logger;
   mailer: Mailer;
   ingest: IngestRuntime;
+  /** The raw SQLite handle, for the online backup API (falls back to VACUUM INTO without it). */
+  sqlite?: SQLite.Database;
 }
 
 export const SESSION_COOKIE = 'maculo.sid';
@@ -94,7 +102,12 @@ export function createApp(deps: AppDeps): Express {
   api.use(uploadsRoutes(deps));
   api.use(photosRoutes(deps));
   api.use(sortRoutes(deps));
+  api.use(identifyRoutes(deps));
+  api.use(curateRoutes(deps));
   api.use(estimateRoutes(deps));
+  api.use(sessionsRoutes(deps));
+  api.use(analysesRoutes(deps));
+  api.use(exportsRoutes(deps));
   api.use(apiNotFound);
   app.use('/api', api);
 

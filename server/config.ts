@@ -1,7 +1,7 @@
 import { randomBytes } from 'node:crypto';
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
-import { dirname, resolve } from 'node:path';
+import { dirname, join, resolve } from 'node:path';
 
 /** Everything the server reads from its environment, checked once at start. */
 export interface Config {
@@ -24,6 +24,7 @@ export interface Config {
   readonly uploadMaxFiles: number;
   readonly uploadMaxRequestMb: number;
   readonly jobRetryMs: number;
+  readonly demoCacheDir: string;
 }
 
 function intFrom(
@@ -98,5 +99,6 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     uploadMaxFiles: intFrom(env, 'UPLOAD_MAX_FILES', 200, 1, 100_000),
     uploadMaxRequestMb: intFrom(env, 'UPLOAD_MAX_REQUEST_MB', 2000, 1, 100_000),
     jobRetryMs: intFrom(env, 'JOB_RETRY_MS', 1000, 1, 3_600_000),
+    demoCacheDir: resolve(env['DEMO_CACHE_DIR'] ?? join(dirname(databasePath), 'demo-cache')),
   } satisfies Config);
 }

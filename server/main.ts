@@ -1,4 +1,3 @@
-import { dirname, join } from 'node:path';
 import { pino } from 'pino';
 import { seedDemo } from '../seeds/demo';
 import { createApp } from './app';
@@ -6,6 +5,7 @@ import { loadConfig } from './config';
 import { openDatabase } from './db/database';
 import { migrateToLatest } from './db/migrate';
 import { startIngest } from './ingest-runtime';
+import { startScheduler } from './scheduler';
 import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp';
 import { createSmtpMailer } from './mail/mailer';
 import { closeSecrPool } from './workers/secr-pool';
@@ -14,7 +14,7 @@ import { closeSecrPool } from './workers/secr-pool';
 async function main(): Promise<void> {
   const config = loadConfig();
   const log = pino({ level: config.logLevel });
-  const { db } = openDatabase(config.databasePath);
+  const { db, sqlite } = openDatabase(config.databasePath);
   const applied = await migrateToLatest(db);
   if (applied.length) log.info({ applied }, 'database migrated');
 
@@ -35,12 +35,13 @@ async function main(): Promise<void> {
     const seeded = await seedDemo(db, {
       log,
       ingest,
-      cacheDir: join(dirname(config.databasePath), 'demo-cache'),
+      cacheDir: config.demoCacheDir,
     });
     if (seeded) log.info('demo project seeded (see README for the demo accounts)');
   }
 
-  const app = createApp({ db, config, log, mailer, ingest });
+  const app = createApp({ db, sqlite, config, log, mailer, ingest });
+  const stopScheduler = startScheduler({ db, mailer, log, publicUrl: config.publicUrl });
   const server = app.listen(config.port, config.host, () => {
     log.info(`Maculo is running on ${config.publicUrl}`);
   });
@@ -49,6 +50,7 @@ async function main(): Promise<void> {
   const shutdown = (signal: string) => {
     log.info({ signal }, 'shutting down');
     server.close(() => {
+      stopScheduler();
       mailer.close();
       void ingest.stop();
       void Promise.resolve(fakeSmtp?.close()).finally(

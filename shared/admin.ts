@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { hasSomeField } from './patch';
 
 /** Body of `POST /api/admin/users`; without a password the person gets a set-password e-mail. */
 export const createUserBodySchema = z
@@ -27,7 +28,8 @@ export const updateUserBodySchema = z
     disabled: z.boolean(),
   })
   .partial()
-  .strict();
+  .strict()
+  .refine(hasSomeField, { message: 'Send at least one field to change.' });
 
 /** A user as the admin pages list them. */
 export interface AdminUserView {

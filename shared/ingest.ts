@@ -32,7 +32,8 @@ export interface UploadResponse {
 }
 
 /** Processing states of a photo. */
-export type PhotoStatus = 'queued' | 'processing' | 'ready' | 'failed' | 'purged';
+/** `external`: imported from a package without the file, only its record is kept. */
+export type PhotoStatus = 'queued' | 'processing' | 'ready' | 'failed' | 'purged' | 'external';
 
 /** Flags a photo can carry after ingest. */
 export const PHOTO_FLAGS = [

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { hasSomeField } from './patch';
 import { slugSchema } from './ids';
 import { PROJECT_ROLES, type ProjectRole } from './roles';
 
@@ -105,7 +106,11 @@ export const createProjectBodySchema = z
 export type CreateProjectBody = z.infer<typeof createProjectBodySchema>;
 
 /** Body of `PATCH /api/projects/:slug`: any subset of the settings. */
-export const updateProjectBodySchema = z.object(settingsShape).partial().strict();
+export const updateProjectBodySchema = z
+  .object(settingsShape)
+  .partial()
+  .strict()
+  .refine(hasSomeField, { message: 'Send at least one field to change.' });
 export type UpdateProjectBody = z.infer<typeof updateProjectBodySchema>;
 
 /** One line of `GET /api/projects`. */

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { hasSomeField } from './patch';
 import type { PhotoFlag } from './ingest';
 
 const id = (what: string) =>
@@ -118,7 +119,11 @@ export const createSightingBodySchema = z
 export type CreateSightingBody = z.infer<typeof createSightingBodySchema>;
 
 /** Body of `PATCH /api/projects/:slug/sightings/:id`. */
-export const updateSightingBodySchema = z.object(sightingShape).partial().strict();
+export const updateSightingBodySchema = z
+  .object(sightingShape)
+  .partial()
+  .strict()
+  .refine(hasSomeField, { message: 'Send at least one field to change.' });
 
 /** Body of `PUT /api/projects/:slug/species`: the quick-pick list in order. */
 export const speciesListBodySchema = z

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { hasSomeField } from './patch';
 import { timeZoneSchema } from './projects';
 
 /** Camtrap DP 1.0.2 deployments.featureType values. */
@@ -67,7 +68,8 @@ export const updateStationBodySchema = z
     notes: z.string().max(2000),
   })
   .partial()
-  .strict();
+  .strict()
+  .refine(hasSomeField, { message: 'Send at least one field to change.' });
 
 /** A station as the API shows it; coordinates generalised (or null) for roles that must not see them. */
 export interface StationView {
@@ -177,6 +179,7 @@ export const updateDeploymentBodySchema = z
   .object(deploymentShape)
   .partial()
   .strict()
+  .refine(hasSomeField, { message: 'Send at least one field to change.' })
   .superRefine(checkWindow);
 export type UpdateDeploymentBody = z.infer<typeof updateDeploymentBodySchema>;
 

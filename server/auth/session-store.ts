@@ -2,6 +2,7 @@ import session from 'express-session';
 import type { Db } from '../db/database';
 
 const DAY_MS = 24 * 60 * 60 * 1000;
+const TOUCH_STEP_MS = 60 * 1000;
 
 type Callback<T = void> = (err?: unknown, value?: T) => void;
 
@@ -13,6 +14,8 @@ function userOf(sess: session.SessionData): string | null {
 /** express-session store on the app's SQLite database: sessions survive a restart. */
 export class KyselySessionStore extends session.Store {
   private pruneTimer: NodeJS.Timeout | null = null;
+  /** The expiry last read or written per session id, so a touch writes only when it moves. */
+  private readonly knownExpiry = new Map<string, string>();
 
   constructor(
     private readonly db: Db,
@@ -33,6 +36,7 @@ export class KyselySessionStore extends session.Store {
       .executeTakeFirst()
       .then((row) => {
         if (!row || row.expires_at <= new Date().toISOString()) return cb(null, null);
+        this.remember(sid, row.expires_at);
         cb(null, JSON.parse(row.sess) as session.SessionData);
       }, cb);
   }
@@ -48,12 +52,16 @@ export class KyselySessionStore extends session.Store {
       )
       .execute()
       .then(
-        () => cb?.(),
+        () => {
+          this.remember(sid, expires);
+          cb?.();
+        },
         (err: unknown) => cb?.(err),
       );
   }
 
   override destroy(sid: string, cb?: Callback): void {
+    this.knownExpiry.delete(sid);
     this.db
       .deleteFrom('sessions')
       .where('sid', '=', sid)
@@ -64,16 +72,35 @@ export class KyselySessionStore extends session.Store {
       );
   }
 
+  /**
+   * Rolling sessions touch on every request; the stored expiry moves only when it would gain at
+   * least a minute, which saves a database write on almost every request.
+   */
   override touch(sid: string, sess: session.SessionData, cb?: Callback): void {
+    const expires = this.expiryOf(sess);
+    const known = this.knownExpiry.get(sid);
+    if (known && Date.parse(expires) - Date.parse(known) < TOUCH_STEP_MS) {
+      cb?.();
+      return;
+    }
     this.db
       .updateTable('sessions')
-      .set({ expires_at: this.expiryOf(sess) })
+      .set({ expires_at: expires })
       .where('sid', '=', sid)
       .execute()
       .then(
-        () => cb?.(),
+        () => {
+          this.remember(sid, expires);
+          cb?.();
+        },
         (err: unknown) => cb?.(err),
       );
+  }
+
+  private remember(sid: string, expires: string): void {
+    // Bounded: forgetting an entry only costs one write at that session's next touch.
+    if (this.knownExpiry.size >= 50_000) this.knownExpiry.clear();
+    this.knownExpiry.set(sid, expires);
   }
 
   /** Deletes expired sessions; returns how many went. */
@@ -87,6 +114,7 @@ export class KyselySessionStore extends session.Store {
 
   /** Ends every session of one user (disabled account, password reset). */
   async destroyForUser(userId: string, exceptSid?: string): Promise<void> {
+    this.knownExpiry.clear();
     let query = this.db.deleteFrom('sessions').where('user_id', '=', userId);
     if (exceptSid) query = query.where('sid', '!=', exceptSid);
     await query.execute();

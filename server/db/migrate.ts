@@ -3,12 +3,22 @@ import type { Db } from './database';
 import * as m0001 from './migrations/0001_foundation';
 import * as m0002 from './migrations/0002_ingest';
 import * as m0003 from './migrations/0003_sort';
+import * as m0004 from './migrations/0004_identify';
+import * as m0005 from './migrations/0005_curate';
+import * as m0006 from './migrations/0006_analyses';
+import * as m0007 from './migrations/0007_exports';
+import * as m0008 from './migrations/0008_sort_queue';
 
 /** Migrations in order; imported statically so they work the same under tsx, tests and builds. */
 const MIGRATIONS: Record<string, Migration> = {
   '0001_foundation': m0001,
   '0002_ingest': m0002,
   '0003_sort': m0003,
+  '0004_identify': m0004,
+  '0005_curate': m0005,
+  '0006_analyses': m0006,
+  '0007_exports': m0007,
+  '0008_sort_queue': m0008,
 };
 
 class StaticProvider implements MigrationProvider {

@@ -71,3 +71,26 @@ export function accountCreatedMail(input: {
     html: html(lines, { href: input.link, label: 'Choose your password' }),
   };
 }
+
+/** The curators' digest of pending disputes and suggested duplicates. */
+export function curateDigestMail(input: {
+  to: string;
+  name: string;
+  projectName: string;
+  disputes: number;
+  suggestions: number;
+  examples: string[];
+  link: string;
+}): MailMessage {
+  const lines = [
+    `Hello ${input.name},`,
+    `In "${input.projectName}" there are ${input.disputes} disputed sighting${input.disputes === 1 ? '' : 's'} waiting for a decision and ${input.suggestions} suggested duplicate${input.suggestions === 1 ? '' : 's'} to check.`,
+    ...input.examples.map((e) => `• ${e}`),
+  ];
+  return {
+    to: input.to,
+    subject: `Maculo: ${input.disputes} disputes and ${input.suggestions} possible duplicates in ${input.projectName}`,
+    text: `${lines.join('\n\n')}\n\nOpen the Curate screen: ${input.link}\n`,
+    html: html(lines, { href: input.link, label: 'Open the Curate screen' }),
+  };
+}

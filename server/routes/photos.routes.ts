@@ -1,10 +1,14 @@
 import { existsSync } from 'node:fs';
+import { readFile } from 'node:fs/promises';
 import { Router, type Request, type Response } from 'express';
 import type { AppDeps } from '../app';
 import { ApiError } from '../errors/api-error';
 import { photoAccess, photoOf } from '../middleware/photo-access';
 import { recordAudit } from '../services/audit.service';
 import type { DerivedKind } from '../images/storage';
+import { stripJpegMetadata } from '../images/strip-metadata';
+import { publicPrecisionOf } from '../services/projects.service';
+import { roleAtLeast } from '../../shared/roles';
 
 declare module 'express-session' {
   interface SessionData {
@@ -39,6 +43,12 @@ export function photosRoutes({ db, ingest }: AppDeps): Router {
     if (row.status === 'purged') {
       throw new ApiError('gone', 'This photo was deleted under the project’s retention rule.');
     }
+    if (row.status === 'external') {
+      throw new ApiError(
+        'not_found',
+        'This photo came in a Camtrap DP package without its file; only its record is here.',
+      );
+    }
     if (!human || revealed(req, row.id)) return false;
     const path = storage.derivedPath(row.sha256, kind);
     if (!existsSync(path))
@@ -46,6 +56,21 @@ export function photosRoutes({ db, ingest }: AppDeps): Router {
     res.set('Cache-Control', 'no-store');
     res.type('image/jpeg').sendFile(path);
     return true;
+  };
+
+  // The camera wrote its GPS position into the original's EXIF: roles that see only generalised
+  // locations get the file without its metadata segments.
+  const sendOriginal = async (req: Request, res: Response) => {
+    const { row, project, role } = photoOf(req);
+    const path = storage.absolute(row.stored_path);
+    if (roleAtLeast(role, 'ecologist') || publicPrecisionOf(project) === undefined) {
+      return send(res, path, row.sha256);
+    }
+    const bytes = await readFile(path).catch(() => {
+      throw new ApiError('not_found', 'The photo file is missing from the store.');
+    });
+    res.set({ 'Cache-Control': 'private, max-age=3600', ETag: `"${row.sha256}-s"` });
+    res.type('image/jpeg').send(stripJpegMetadata(bytes));
   };
 
   router.get('/photos/:id/thumb', photoAccess(db), (req, res) => {
@@ -59,15 +84,15 @@ export function photosRoutes({ db, ingest }: AppDeps): Router {
     throw new ApiError('not_found', 'The thumbnail is not ready yet.');
   });
 
-  router.get('/photos/:id/preview', photoAccess(db), (req, res) => {
+  router.get('/photos/:id/preview', photoAccess(db), async (req, res) => {
     if (sendBlurred(req, res, 'preview-blur')) return;
     const { row } = photoOf(req);
     const preview = storage.derivedPath(row.sha256, 'preview');
     if (existsSync(preview)) return send(res, preview, `${row.sha256}-p`);
-    send(res, storage.absolute(row.stored_path), row.sha256);
+    await sendOriginal(req, res);
   });
 
-  router.get('/photos/:id/original', photoAccess(db), (req, res) => {
+  router.get('/photos/:id/original', photoAccess(db), async (req, res) => {
     if (sendBlurred(req, res, 'preview-blur')) return;
     const { row } = photoOf(req);
     if (!row.stored_path)
@@ -76,7 +101,7 @@ export function photosRoutes({ db, ingest }: AppDeps): Router {
       'Content-Disposition',
       `inline; filename="${row.original_name.replace(/[^\w.-]/g, '_')}"`,
     );
-    send(res, storage.absolute(row.stored_path), row.sha256);
+    await sendOriginal(req, res);
   });
 
   router.post('/photos/:id/reveal', photoAccess(db), async (req, res) => {

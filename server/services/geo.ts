@@ -35,3 +35,19 @@ export function generalise(
     withheld: false,
   };
 }
+
+/** Station positions in metres on a local plane (equirectangular about the stations' mean). */
+export function localPlane<T extends { id: string; lat: number; lon: number; code: string }>(
+  stations: T[],
+): Map<string, { x: number; y: number; code: string }> {
+  const out = new Map<string, { x: number; y: number; code: string }>();
+  if (stations.length === 0) return out;
+  const lat0 = stations.reduce((a, s) => a + s.lat, 0) / stations.length;
+  const lon0 = stations.reduce((a, s) => a + s.lon, 0) / stations.length;
+  const mPerDegLat = 111_320;
+  const mPerDegLon = 111_320 * Math.cos((lat0 * Math.PI) / 180);
+  for (const s of stations) {
+    out.set(s.id, { x: (s.lon - lon0) * mPerDegLon, y: (s.lat - lat0) * mPerDegLat, code: s.code });
+  }
+  return out;
+}

@@ -12,6 +12,7 @@ import type { Db } from '../db/database';
 import type { ProjectsTable } from '../db/schema/projects.table';
 import { ApiError } from '../errors/api-error';
 import { recordAudit } from './audit.service';
+import { snapToGrid } from './geo';
 import { newId, nowIso } from './ids';
 
 /** Public coordinate precision of a project in degrees; null = withheld, undefined = exact. */
@@ -19,6 +20,33 @@ export function publicPrecisionOf(
   row: Pick<ProjectsTable, 'sensitivity'>,
 ): number | null | undefined {
   return PUBLIC_PRECISION[row.sensitivity as SensitivityCategory];
+}
+
+/**
+ * The study-area boundary as a role may see it: exact, with every vertex snapped to the public
+ * grid (repeated vertices dropped), or withheld.
+ */
+export function boundaryFor(
+  geojson: string | null,
+  precision: number | null | undefined,
+): Boundary | null {
+  if (!geojson || precision === null) return null;
+  const boundary = JSON.parse(geojson) as Boundary;
+  if (precision === undefined) return boundary;
+  const ring = (positions: [number, number][]) => {
+    const out: [number, number][] = [];
+    for (const [lon, lat] of positions) {
+      const p: [number, number] = [snapToGrid(lon, precision), snapToGrid(lat, precision)];
+      const last = out.at(-1);
+      if (!last || last[0] !== p[0] || last[1] !== p[1]) out.push(p);
+    }
+    // A ring that collapses to a point or a line is no shape at all: keep it closed and valid.
+    while (out.length < 4) out.push(out[0]!);
+    return out;
+  };
+  return boundary.type === 'Polygon'
+    ? { type: 'Polygon', coordinates: boundary.coordinates.map(ring) }
+    : { type: 'MultiPolygon', coordinates: boundary.coordinates.map((poly) => poly.map(ring)) };
 }
 
 /** The members' view of a project. */
@@ -38,10 +66,10 @@ export function toProjectDetail(row: ProjectsTable, role: ProjectRole | null): P
     publicPrecision: precision === undefined ? null : precision,
     sensitivityReviewDate: row.sensitivity_review_date,
     codePrefix: row.code_prefix,
-    boundary:
-      row.boundary_geojson && (precision !== null || roleAtLeast(role, 'ecologist'))
-        ? (JSON.parse(row.boundary_geojson) as Boundary)
-        : null,
+    boundary: boundaryFor(
+      row.boundary_geojson,
+      roleAtLeast(role, 'ecologist') ? undefined : precision,
+    ),
     tileUrl: row.tile_url,
     gpsToleranceM: row.gps_tolerance_m,
     humanRetentionDays: row.human_retention_days,
@@ -119,6 +147,7 @@ export async function createProject(
     tile_url: input.tileUrl,
     gps_tolerance_m: input.gpsToleranceM,
     human_retention_days: input.humanRetentionDays,
+    last_digest_at: null,
   };
   await db.transaction().execute(async (trx) => {
     await trx.insertInto('projects').values(row).execute();

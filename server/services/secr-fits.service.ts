@@ -14,7 +14,7 @@ export const SECR_JOB_TTL_MS = 30 * 60 * 1000;
 export const SECR_JOBS_PER_USER = 2;
 
 /** Refuses, before any work, a fit too large for memory (400) or one the busy worker cannot queue (429). */
-function assertSecrCanStart(input: SecrRequest): void {
+export function assertSecrCanStart(input: SecrRequest): void {
   withInputErrorsAs400(() => assertSecrFitsInMemory(input));
   if (secrPoolIsFull()) {
     throw new ApiError(

@@ -75,6 +75,8 @@ export async function createSighting(
     created_by: actorId,
     created_at: now,
     updated_at: now,
+    lease_holder: null,
+    lease_until: null,
   };
   await db.transaction().execute(async (trx) => {
     await trx.insertInto('sightings').values(row).execute();

@@ -45,11 +45,18 @@ export async function leaseNext(
       sql`exists (select 1 from photos ph where ph.event_id = e.id and ph.flags like ${`%"${query.flag}"%`})`,
     );
   }
+  // Station order walks stations by code (CROSS JOIN keeps that loop outermost) and each
+  // station's unsorted events through events_station_queue, so no sort of the whole queue.
+  const source =
+    query.order === 'station'
+      ? sql`stations s cross join events e on e.station_id = s.id and s.project_id = ${project.id}`
+      : sql`events e join stations s on s.id = e.station_id`;
   const order = query.order === 'station' ? sql`s.code, e.start, e.id` : sql`e.start, e.id`;
+  // (The Sort screen gives its leases back itself when the reviewer changes filters.)
   const leased = await sql<{ id: string }>`
     update events set lease_holder = ${user.id}, lease_until = ${until}
     where id in (
-      select e.id from events e join stations s on s.id = e.station_id
+      select e.id from ${source}
       where ${sql.join(filters, sql` and `)}
       order by ${order}
       limit ${query.limit}

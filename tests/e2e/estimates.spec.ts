@@ -68,10 +68,3 @@ test('an ecologist fits SECR density on a synthetic survey and follows its progr
   await expect(results.locator('mac-detection-chart svg')).toBeVisible();
   await expect(results.locator('mac-trap-plot svg')).toBeVisible();
 });
-
-test('the catalogue tab says plainly that it needs confirmed sightings', async ({ page }) => {
-  await signIn(page, 'ecologist@demo.test');
-  await page.goto('/p/kasiri-leopards/estimates');
-  await page.getByRole('tab', { name: "From this project's catalogue" }).click();
-  await expect(page.getByText('Needs confirmed sightings')).toBeVisible();
-});

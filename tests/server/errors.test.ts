@@ -59,6 +59,26 @@ describe('bad input gets the one error shape', () => {
     );
   });
 
+  it('should refuse an empty PATCH with 400 instead of running it', async () => {
+    const admin = await signIn(ctx.app, team.users.admin.email);
+    const ecologist = await signIn(ctx.app, team.users.ecologist.email);
+    const id = '0123456789abcdef0123';
+    const cases: [typeof admin, string][] = [
+      [admin, `/api/admin/users/${team.users.volunteer.id}`],
+      [ecologist, '/api/projects/test-survey'],
+      [ecologist, `/api/projects/test-survey/stations/${id}`],
+      [ecologist, `/api/projects/test-survey/deployments/${id}`],
+      [ecologist, `/api/projects/test-survey/individuals/${id}`],
+      [ecologist, `/api/projects/test-survey/sightings/${id}`],
+    ];
+    for (const [client, url] of cases) {
+      const res = await client.patch(url, {});
+      expect(res.status, url).toBe(400);
+      expect(res.body.error.code, url).toBe('validation_failed');
+      expect(res.body.error.message, url).toContain('Send at least one field to change.');
+    }
+  });
+
   it('should answer bad ids with 400', async () => {
     const admin = await signIn(ctx.app, team.users.admin.email);
     const res = await admin.patch('/api/admin/users/not-an-id', { disabled: true });

@@ -43,13 +43,13 @@ export async function createTestContext(env: Record<string, string> = {}): Promi
     WORKERS: '1',
     ...env,
   });
-  const { db } = openDatabase(config.databasePath);
+  const { db, sqlite } = openDatabase(config.databasePath);
   await migrateToLatest(db);
   const smtp = await startFakeSmtp(db);
   const mailer = createSmtpMailer(smtp.url, config.mailFrom);
   const log = pino({ level: process.env['TEST_LOG_LEVEL'] ?? 'silent' });
   const ingest = await startIngest(db, config, log);
-  const app = createApp({ db, config, log, mailer, ingest });
+  const app = createApp({ db, sqlite, config, log, mailer, ingest });
   return {
     app,
     db,

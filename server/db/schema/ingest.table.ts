@@ -26,6 +26,7 @@ export interface DeploymentsTable {
   bait_use: number;
   notes: string;
   clock_fix: string | null;
+  camera_model?: string | null;
   created_by: string | null;
   created_at: string;
 }

@@ -20,6 +20,7 @@ export interface ProjectsTable {
   tile_url: string | null;
   gps_tolerance_m: number;
   human_retention_days: number | null;
+  last_digest_at: string | null;
 }
 
 /** A user's role in one project. */

@@ -22,4 +22,8 @@ export interface SightingsTable {
   created_by: string | null;
   created_at: string;
   updated_at: string;
+  lease_holder: string | null;
+  lease_until: string | null;
+  /** For sightings imported from a package: the agreement and call count it recorded. */
+  imported_review?: string | null;
 }

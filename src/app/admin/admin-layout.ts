@@ -2,7 +2,7 @@ import { ChangeDetectionStrategy, Component } from '@angular/core';
 import { MatTabLink, MatTabNav, MatTabNavPanel } from '@angular/material/tabs';
 import { RouterLink, RouterLinkActive, RouterOutlet } from '@angular/router';
 
-/** Administration: users, projects, memberships and the local outbox. */
+/** Administration: users, projects, memberships, backup and import, and the local outbox. */
 @Component({
   selector: 'mac-admin-layout',
   imports: [MatTabNav, MatTabLink, MatTabNavPanel, RouterLink, RouterLinkActive, RouterOutlet],
@@ -32,6 +32,7 @@ export class AdminLayout {
     { path: 'users', label: 'Users' },
     { path: 'projects', label: 'Projects' },
     { path: 'memberships', label: 'Memberships' },
+    { path: 'data', label: 'Backup and import' },
     { path: 'outbox', label: 'Outbox' },
   ];
 }

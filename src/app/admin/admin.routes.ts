@@ -23,6 +23,11 @@ export const ADMIN_ROUTES: Routes = [
         loadComponent: () => import('./memberships-page').then((m) => m.MembershipsPage),
       },
       {
+        path: 'data',
+        title: 'Backup and import · Maculo',
+        loadComponent: () => import('./data-page').then((m) => m.DataPage),
+      },
+      {
         path: 'outbox',
         title: 'Outbox · Maculo',
         loadComponent: () => import('./outbox-page').then((m) => m.OutboxPage),

@@ -43,7 +43,8 @@ export const homeRedirectGuard: CanActivateFn = async () => {
   const router = inject(Router);
   const me = await auth.ensureLoaded();
   if (!me) return router.createUrlTree(['/sign-in']);
-  if (me.memberships.length === 1)
+  // An administrator reaches every project, so their home is always the list.
+  if (!me.user.isAdmin && me.memberships.length === 1)
     return router.createUrlTree(['/p', me.memberships[0]!.projectSlug]);
   return router.createUrlTree(['/projects']);
 };

@@ -36,5 +36,6 @@ export class EstimatesLayout {
     { path: 'two-samples', label: 'Two samples' },
     { path: 'plots', label: 'Plot counts' },
     { path: 'catalogue', label: "From this project's catalogue" },
+    { path: 'analyses', label: 'Saved analyses' },
   ];
 }

@@ -34,7 +34,22 @@ export const ESTIMATES_ROUTES: Routes = [
       {
         path: 'catalogue',
         title: "From this project's catalogue · Estimates · Maculo",
-        loadComponent: () => import('./catalogue-estimates').then((m) => m.CatalogueEstimates),
+        loadComponent: () => import('./session-builder').then((m) => m.SessionBuilder),
+      },
+      {
+        path: 'analyses',
+        title: 'Saved analyses · Estimates · Maculo',
+        loadComponent: () => import('./analyses-list').then((m) => m.AnalysesList),
+      },
+      {
+        path: 'analyses/:id',
+        title: 'Analysis · Estimates · Maculo',
+        loadComponent: () => import('./analysis-page').then((m) => m.AnalysisPage),
+      },
+      {
+        path: 'analyses/:id/report',
+        title: 'Analysis report · Estimates · Maculo',
+        loadComponent: () => import('./analysis-report').then((m) => m.AnalysisReport),
       },
     ],
   },

@@ -7,7 +7,7 @@ describe('SpeciesSearch', () => {
   ]);
 
   it('should find species by common name despite a typo', () => {
-    expect(search.find('hyaena')[0]?.scientific).toBe('Crocuta crocuta');
+    expect(search.find('spoted hyena')[0]?.scientific).toBe('Crocuta crocuta');
     expect(search.find('porcupin')[0]?.common).toMatch(/porcupine/i);
   });
 

@@ -1,13 +1,15 @@
 /**
- * The ECharts pieces Maculo draws with, registered once: bar, scatter, line and custom
- * (error bars) series, grid, tooltip and legend, and the SVG renderer (crisp, and it runs in jsdom).
+ * The ECharts pieces Maculo draws with, registered once: bar, scatter, line, heatmap and custom
+ * (error bars) series, grid, tooltip, legend and visual map (heatmap colour scales), and the SVG
+ * renderer (crisp, and it runs in jsdom).
  */
-import { BarChart, CustomChart, LineChart, ScatterChart } from 'echarts/charts';
+import { BarChart, CustomChart, HeatmapChart, LineChart, ScatterChart } from 'echarts/charts';
 import {
   GridComponent,
   LegendComponent,
   MarkLineComponent,
   TooltipComponent,
+  VisualMapComponent,
 } from 'echarts/components';
 import * as echarts from 'echarts/core';
 import { SVGRenderer } from 'echarts/renderers';
@@ -17,12 +19,14 @@ import type { Provider } from '@angular/core';
 echarts.use([
   BarChart,
   CustomChart,
+  HeatmapChart,
   LineChart,
   ScatterChart,
   GridComponent,
   LegendComponent,
   MarkLineComponent,
   TooltipComponent,
+  VisualMapComponent,
   SVGRenderer,
 ]);
 

@@ -1,0 +1,164 @@
+import type { Candidate, CandidateReason } from '../../shared/identify';
+import { textScores, type CandidatePool, type PoolEntry } from './catalogue-cache';
+
+/** The sighting as ranking sees it. */
+export interface RankingContext {
+  stationId: string;
+  time: number;
+  flank: string;
+  sex: string | null;
+  /** Station positions in metres (a local plane). */
+  stations: Map<string, { x: number; y: number; code: string }>;
+  query?: string;
+  /** Coat-pattern similarity per individual, 0..1, with the number of matching points. */
+  pattern?: Map<string, { score: number; inliers: number }>;
+}
+
+/** Tuning of the space-time signal: typical movement scale, how long memories last, top speed. */
+const SPACE_SCALE_M = 3000;
+const RECENCY_DAYS = 30;
+const MAX_SPEED_M_PER_H = 4000;
+
+function spaceTime(
+  entry: PoolEntry,
+  ctx: RankingContext,
+): { score: number; reasons: CandidateReason[]; penalty: number } {
+  const here = ctx.stations.get(ctx.stationId);
+  if (!here || entry.detections.length === 0) return { score: 0, reasons: [], penalty: 1 };
+  let best = 0;
+  let bestText = '';
+  let penalty = 1;
+  let penaltyText = '';
+  for (const d of entry.detections) {
+    const at = ctx.stations.get(d.stationId);
+    if (!at) continue;
+    const metres = Math.hypot(at.x - here.x, at.y - here.y);
+    const hours = Math.abs(ctx.time - d.time) / 3_600_000;
+    const days = hours / 24;
+    const near = Math.exp(-(metres * metres) / (2 * SPACE_SCALE_M * SPACE_SCALE_M));
+    const recent = Math.exp(-days / RECENCY_DAYS);
+    const score = near * (0.5 + 0.5 * recent);
+    if (score > best) {
+      best = score;
+      const where =
+        metres < 1
+          ? `at this station (${at.code})`
+          : `at ${at.code}, ${(metres / 1000).toFixed(1)} km away`;
+      bestText = `seen ${where} ${days < 1 ? `${hours.toFixed(0)} h` : `${days.toFixed(0)} days`} ${d.time <= ctx.time ? 'before' : 'after'}`;
+    }
+    if (hours > 0 && metres / hours > MAX_SPEED_M_PER_H && metres > 2000 && penalty > 0.35) {
+      penalty = 0.35;
+      penaltyText = `seen at ${at.code} ${hours.toFixed(1)} h apart, ${(metres / 1000).toFixed(1)} km away: an unlikely journey`;
+    }
+  }
+  const reasons: CandidateReason[] = [];
+  if (best > 0.05) reasons.push({ signal: 'space-time', weight: best, text: bestText });
+  if (penaltyText)
+    reasons.push({ signal: 'space-time', weight: -(1 - penalty), text: penaltyText });
+  return { score: best, reasons, penalty };
+}
+
+function flankSignal(
+  entry: PoolEntry,
+  flank: string,
+): { score: number; reason: CandidateReason | null } {
+  const refFlanks = new Set<string>(entry.references.map((r) => r.flank));
+  const knows = (f: string) => refFlanks.has(f) || entry.flanks.has(f) || entry.flanks.has('both');
+  if (flank === 'left' || flank === 'right') {
+    if (knows(flank))
+      return {
+        score: 1,
+        reason: { signal: 'flank', weight: 0.2, text: `${flank} flank on file to compare` },
+      };
+    return {
+      score: 0,
+      reason: {
+        signal: 'flank',
+        weight: 0,
+        text: `known from the other flank only: cannot be compared on this photo`,
+      },
+    };
+  }
+  if (flank === 'both') return { score: knows('left') || knows('right') ? 1 : 0, reason: null };
+  return { score: 0.5, reason: null };
+}
+
+/**
+ * Ranks the catalogue for a sighting. Signals, each with its reason shown to the reviewer: text the
+ * reviewer typed (fuse.js over code, nickname, tags and marking notes), space and time of earlier
+ * detections (near and recent ranks higher, an impossible journey lower), sex compatibility, the
+ * flank on file, and coat-pattern similarity when available.
+ */
+export function rankCandidates(pool: CandidatePool, ctx: RankingContext, limit = 20): Candidate[] {
+  const query = ctx.query?.trim();
+  const text = query ? textScores(pool.fuse, query) : new Map<string, number>();
+  const ranked = pool.entries.map((entry) => {
+    const reasons: CandidateReason[] = [];
+    let score = 0;
+    let weights = 0;
+    if (query) {
+      const t = text.get(entry.id) ?? 0;
+      score += 0.45 * t;
+      weights += 0.45;
+      if (t > 0.05)
+        reasons.push({
+          signal: 'text',
+          weight: t,
+          text: `description matches “${query}” (${Math.round(t * 100)} %)`,
+        });
+    }
+    const st = spaceTime(entry, ctx);
+    score += 0.35 * st.score;
+    weights += 0.35;
+    reasons.push(...st.reasons);
+    const fl = flankSignal(entry, ctx.flank);
+    score += 0.2 * fl.score;
+    weights += 0.2;
+    if (fl.reason) reasons.push(fl.reason);
+    const pattern = ctx.pattern?.get(entry.id);
+    if (ctx.pattern) {
+      score += 0.6 * (pattern?.score ?? 0);
+      weights += 0.6;
+      if (pattern && pattern.inliers > 0) {
+        reasons.push({
+          signal: 'pattern',
+          weight: pattern.score,
+          text: `pattern: ${pattern.inliers} matching points`,
+        });
+      }
+    }
+    let factor = st.penalty;
+    if (ctx.sex && ctx.sex !== 'unknown' && entry.sex !== 'unknown' && ctx.sex !== entry.sex) {
+      factor *= 0.3;
+      reasons.push({
+        signal: 'sex',
+        weight: -0.7,
+        text: `recorded as ${entry.sex}, this animal looks ${ctx.sex}`,
+      });
+    } else if (ctx.sex && ctx.sex !== 'unknown' && ctx.sex === entry.sex) {
+      reasons.push({ signal: 'sex', weight: 0.1, text: `also ${entry.sex}` });
+    }
+    return { entry, score: (score / weights) * factor, reasons };
+  });
+  ranked.sort((a, b) => b.score - a.score || a.entry.code.localeCompare(b.entry.code));
+  return ranked.slice(0, limit).map(({ entry, score, reasons }) => ({
+    individualId: entry.id,
+    code: entry.code,
+    nickname: entry.nickname,
+    score: Math.round(score * 1000) / 1000,
+    reasons: reasons.sort((a, b) => Math.abs(b.weight) - Math.abs(a.weight)),
+    references: relevantReferences(entry, ctx.flank),
+    sex: entry.sex,
+    notes: entry.notes,
+    tags: entry.tags,
+  }));
+}
+
+/** Reference photos of the sighting's flank first (both flanks for a both-flank sighting). */
+function relevantReferences(entry: PoolEntry, flank: string) {
+  if (flank === 'left' || flank === 'right') {
+    const same = entry.references.filter((r) => r.flank === flank);
+    return same.length ? same : entry.references.filter((r) => r.flank === 'other');
+  }
+  return entry.references;
+}
