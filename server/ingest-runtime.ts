@@ -5,13 +5,17 @@ import { createImagePool, type ImagePool } from './images/pool';
 import { PhotoStorage } from './images/storage';
 import { blurHandler, derivativesFailed, derivativesHandler } from './jobs/photo-jobs';
 import { JobRunner } from './jobs/runner';
+import { createPatternPool, type PatternPool } from './pattern/pool';
 import type { UploadLimits } from './middleware/upload-storage';
+import { patternFeaturesHandler } from './services/pattern.service';
 import { purgeExpiredHumanPhotos } from './services/retention.service';
 
 /** Photo storage, the worker pool and the job runner: the moving parts of ingest. */
 export interface IngestRuntime {
   storage: PhotoStorage;
   pool: ImagePool;
+  /** Coat-pattern features and matching (one thread: each loads OpenCV, about 125 MB). */
+  pattern: PatternPool;
   runner: JobRunner;
   limits: UploadLimits;
   maxMegapixels: number;
@@ -42,6 +46,7 @@ export async function startIngest(
   if (swept.tmp || swept.orphans) log.info(swept, 'storage recovered after an unclean stop');
 
   const pool = createImagePool(config.workers);
+  const pattern = createPatternPool(1);
   const runner = new JobRunner(
     db,
     log,
@@ -51,6 +56,7 @@ export async function startIngest(
         onFinalFailure: derivativesFailed(db),
       },
       blur: { run: blurHandler(db, pool, storage) },
+      pattern: { run: patternFeaturesHandler(db, pattern, storage) },
     },
     pool.threads,
     500,
@@ -67,6 +73,7 @@ export async function startIngest(
   return {
     storage,
     pool,
+    pattern,
     runner,
     limits: {
       maxFileBytes: config.uploadMaxFileMb * 1_000_000,
@@ -78,6 +85,7 @@ export async function startIngest(
       clearInterval(retention);
       await runner.stop();
       await pool.close();
+      await pattern.close();
     },
   };
 }

@@ -6,6 +6,7 @@ import { openDatabase } from './db/database';
 import { migrateToLatest } from './db/migrate';
 import { startIngest } from './ingest-runtime';
 import { startScheduler } from './scheduler';
+import { queueMissingPatternWork } from './services/pattern.service';
 import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp';
 import { createSmtpMailer } from './mail/mailer';
 import { closeSecrPool } from './workers/secr-pool';
@@ -38,6 +39,13 @@ async function main(): Promise<void> {
       cacheDir: config.demoCacheDir,
     });
     if (seeded) log.info('demo project seeded (see README for the demo accounts)');
+  }
+  // Coat-pattern features still missing (seeded or imported data, a new vocabulary) are computed
+  // in the background by the job queue; the server answers meanwhile.
+  const patternJobs = await queueMissingPatternWork(db);
+  if (patternJobs) {
+    log.info({ jobs: patternJobs }, 'coat-pattern features queued');
+    ingest.runner.kick();
   }
 
   const app = createApp({ db, sqlite, config, log, mailer, ingest });

@@ -170,10 +170,34 @@ export interface SightingToIdentify {
   leaseUntil: string;
 }
 
+/** Whether the coat pattern took part in a ranking, and why not when it did not. */
+export interface PatternStatus {
+  /** ready: compared; pending: features still being computed; unavailable: comparison failed. */
+  state: 'ready' | 'pending' | 'unavailable';
+  /** Reference photos with features the sighting was compared with. */
+  references: number;
+  text: string;
+}
+
 /** Answer of `GET /api/projects/:slug/identify/next`. */
 export interface IdentifyNext {
   sighting: SightingToIdentify;
   candidates: Candidate[];
+  pattern: PatternStatus;
+}
+
+/**
+ * Answer of `GET /api/projects/:slug/sightings/:id/pattern-matches/:photoId`: verified point pairs
+ * between the sighting's best photo and a reference photo, in fractions of each whole photo.
+ */
+export interface PatternMatchesView {
+  referencePhotoId: string;
+  inliers: number;
+  score: number;
+  /** True when the sighting's photo matched after being flipped left to right. */
+  mirrored: boolean;
+  /** [sighting x, y, reference x, y] per pair. */
+  pairs: [number, number, number, number][];
 }
 
 /** Answer of `POST /api/projects/:slug/sightings/:id/calls`. */

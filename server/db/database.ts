@@ -20,6 +20,7 @@ import type {
   IndividualsTable,
   ReferencePhotosTable,
 } from './schema/identify.table';
+import type { PatternFeaturesTable } from './schema/pattern.table';
 import type { MembershipsTable, ProjectsTable } from './schema/projects.table';
 import type { ProjectSpeciesTable, SightingsTable } from './schema/sort.table';
 import type {
@@ -55,6 +56,7 @@ export interface Database {
   identity_changes: IdentityChangesTable;
   duplicate_dismissals: DuplicateDismissalsTable;
   analyses: AnalysesTable;
+  pattern_features: PatternFeaturesTable;
 }
 
 /** The app's database handle. */

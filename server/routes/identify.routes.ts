@@ -15,12 +15,13 @@ import { parseWith } from '../middleware/validate';
 import { makeCall } from '../services/calls.service';
 import { CATALOGUE_SEARCH, textScores } from '../services/catalogue-cache';
 import {
-  candidatesFor,
+  candidatesWithPattern,
   leaseNextSighting,
   releaseSighting,
   sightingToIdentify,
 } from '../services/identify.service';
 import { individualDetail } from '../services/individual-detail.service';
+import { patternMatches } from '../services/pattern.service';
 import {
   catalogueEntries,
   resolveIndividual,
@@ -73,7 +74,7 @@ function filterCatalogue(
 }
 
 /** Identify (the queue, candidates, calls) and the Catalogue of individuals. */
-export function identifyRoutes({ db }: AppDeps): Router {
+export function identifyRoutes({ db, ingest }: AppDeps): Router {
   const router = Router();
 
   router.get('/projects/:slug/identify/next', projectRole(db, 'reviewer'), async (req, res) => {
@@ -85,7 +86,8 @@ export function identifyRoutes({ db }: AppDeps): Router {
       return;
     }
     const sighting = await sightingToIdentify(db, row.id, id);
-    res.json({ sighting, candidates: await candidatesFor(db, row, sighting) });
+    const ranked = await candidatesWithPattern(db, ingest.pattern, row, sighting);
+    res.json({ sighting, ...ranked });
   });
 
   router.post('/projects/:slug/identify/skip', projectRole(db, 'reviewer'), async (req, res) => {
@@ -106,7 +108,33 @@ export function identifyRoutes({ db }: AppDeps): Router {
       const query = parseWith(candidatesQuerySchema, req.query, 'query');
       const { row } = projectOf(req);
       const sighting = await sightingToIdentify(db, row.id, id);
-      res.json(await candidatesFor(db, row, sighting, query.q));
+      res.json(
+        (await candidatesWithPattern(db, ingest.pattern, row, sighting, query.q)).candidates,
+      );
+    },
+  );
+
+  router.get(
+    '/projects/:slug/sightings/:sightingId/pattern-matches/:photoId',
+    projectRole(db, 'reviewer'),
+    async (req, res) => {
+      const id = parseWith(idSchema, req.params['sightingId'], 'sightingId');
+      const photoId = parseWith(idSchema, req.params['photoId'], 'photoId');
+      const { row } = projectOf(req);
+      const sighting = await sightingToIdentify(db, row.id, id);
+      const view = await patternMatches(
+        db,
+        ingest.pattern,
+        row.id,
+        {
+          id: sighting.id,
+          bestPhotoId: sighting.bestPhoto.id,
+          crop: sighting.crop,
+          flank: sighting.flank,
+        },
+        photoId,
+      );
+      res.json(view);
     },
   );
 

@@ -10,8 +10,12 @@ export interface RankingContext {
   /** Station positions in metres (a local plane). */
   stations: Map<string, { x: number; y: number; code: string }>;
   query?: string;
-  /** Coat-pattern similarity per individual, 0..1, with the number of matching points. */
-  pattern?: Map<string, { score: number; inliers: number }>;
+  /**
+   * Coat-pattern similarity per individual, 0..1, with the number of matching points and whether
+   * the photo matched flipped (the flank photographed from the other side). Absent while the
+   * sighting's features are not ready: the ranking then leaves the pattern out.
+   */
+  pattern?: Map<string, { score: number; inliers: number; mirrored?: boolean }>;
 }
 
 /** Tuning of the space-time signal: typical movement scale, how long memories last, top speed. */
@@ -123,7 +127,7 @@ export function rankCandidates(pool: CandidatePool, ctx: RankingContext, limit =
         reasons.push({
           signal: 'pattern',
           weight: pattern.score,
-          text: `pattern: ${pattern.inliers} matching points`,
+          text: `pattern: ${pattern.inliers} matching points${pattern.mirrored ? ' (photo flipped)' : ''}`,
         });
       }
     }

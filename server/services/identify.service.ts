@@ -1,5 +1,5 @@
 import { sql } from 'kysely';
-import type { SightingToIdentify } from '../../shared/identify';
+import type { Candidate, PatternStatus, SightingToIdentify } from '../../shared/identify';
 import type { AgeClass, Crop, Flank, Quality, Sex, SightingState } from '../../shared/sort';
 import type { Db } from '../db/database';
 import type { ProjectsTable } from '../db/schema/projects.table';
@@ -7,6 +7,8 @@ import { ApiError } from '../errors/api-error';
 import { candidatePool } from './catalogue-cache';
 import { rankCandidates, type RankingContext } from './candidates.service';
 import { localPlane } from './geo';
+import { PatternError, type PatternPool } from '../pattern/pool';
+import { patternSignal, patternStatus, type PatternSignal } from './pattern.service';
 
 /** How long a reviewer holds a sighting on the Identify screen. */
 export const IDENTIFY_LEASE_MS = 5 * 60 * 1000;
@@ -129,4 +131,39 @@ export async function candidatesFor(
     query,
     pattern,
   });
+}
+
+/**
+ * Ranked candidates with the coat pattern as one more signal when the sighting's features are
+ * ready, and what the reviewer should be told about it. A failure of the pattern engine never
+ * stops the ranking: it is ranked without the pattern and says so.
+ */
+export async function candidatesWithPattern(
+  db: Db,
+  pattern: PatternPool,
+  project: ProjectsTable,
+  sighting: Pick<
+    SightingToIdentify,
+    'id' | 'stationId' | 'start' | 'flank' | 'sex' | 'crop' | 'bestPhoto'
+  >,
+  query?: string,
+): Promise<{ candidates: Candidate[]; pattern: PatternStatus }> {
+  let signal: PatternSignal | null = null;
+  let error: string | undefined;
+  try {
+    signal = await patternSignal(db, pattern, project.id, {
+      id: sighting.id,
+      bestPhotoId: sighting.bestPhoto.id,
+      crop: sighting.crop,
+      flank: sighting.flank,
+    });
+  } catch (err) {
+    if (!(err instanceof PatternError)) throw err;
+    error = err.message;
+  }
+  const scores = signal?.status === 'ready' && signal.references > 0 ? signal.scores : undefined;
+  return {
+    candidates: await candidatesFor(db, project, sighting, query, scores),
+    pattern: patternStatus(signal, error),
+  };
 }

@@ -3,6 +3,7 @@ import type { Db } from '../db/database';
 import type { IndividualsTable } from '../db/schema/identify.table';
 import type { ProjectsTable } from '../db/schema/projects.table';
 import { ApiError } from '../errors/api-error';
+import { queueMissingPatternWork } from './pattern.service';
 import { recordAudit } from './audit.service';
 import { bumpCatalogue } from './catalogue-cache';
 import { newId, nowIso } from './ids';
@@ -368,5 +369,7 @@ export async function setReferences(
       after: { flank, photoIds },
     });
   });
+  // Newly chosen references get coat-pattern features (most share their sighting's already).
+  await queueMissingPatternWork(db, projectId);
   bumpCatalogue(projectId);
 }

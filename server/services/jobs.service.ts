@@ -3,7 +3,7 @@ import type { JobsTable } from '../db/schema/ingest.table';
 import { newId } from './ids';
 
 /** Kinds of durable background work. */
-export type JobKind = 'derivatives' | 'blur';
+export type JobKind = 'derivatives' | 'blur' | 'pattern';
 
 /** Adds a job (inside the caller's transaction when one is passed). */
 export async function enqueueJob(

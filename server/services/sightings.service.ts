@@ -6,6 +6,7 @@ import { ApiError } from '../errors/api-error';
 import { recordAudit } from './audit.service';
 import { toSightingView } from './event-views.service';
 import { newId, nowIso } from './ids';
+import { cropKey, queuePatternFeatures } from './pattern.service';
 
 async function targetEvent(db: Db, project: ProjectsTable, eventId: string) {
   const event = await db
@@ -80,6 +81,7 @@ export async function createSighting(
   };
   await db.transaction().execute(async (trx) => {
     await trx.insertInto('sightings').values(row).execute();
+    await queuePatternFeatures(trx, { photoId: row.best_photo_id, crop: cropKey(row.crop) });
     await recordAudit(trx, {
       userId: actorId,
       projectId: project.id,
@@ -132,6 +134,12 @@ export async function updateSighting(
   if (patch.ageClass !== undefined) set.age_class = patch.ageClass;
   await db.transaction().execute(async (trx) => {
     await trx.updateTable('sightings').set(set).where('id', '=', sightingId).execute();
+    // A new best photo or crop box means new coat-pattern features.
+    const photoId = set.best_photo_id ?? before.best_photo_id;
+    const crop = set.crop !== undefined ? set.crop : before.crop;
+    if (photoId !== before.best_photo_id || crop !== before.crop) {
+      await queuePatternFeatures(trx, { photoId, crop: cropKey(crop) });
+    }
     await recordAudit(trx, {
       userId: actorId,
       projectId: project.id,

@@ -1,0 +1,28 @@
+import type { Kysely } from 'kysely';
+
+// Frozen in time: this migration never imports app types.
+
+/**
+ * Coat-pattern features: one row per photo and crop (a sighting's best photo with its crop box,
+ * or a reference photo with the crop of the sighting it came from), with the vocabulary the
+ * visual words refer to. A sighting and a reference made from the same photo and crop share
+ * one row. Rows whose vocabulary is not the current one are computed again.
+ */
+export async function up(db: Kysely<unknown>): Promise<void> {
+  await db.schema
+    .createTable('pattern_features')
+    .addColumn('photo_id', 'text', (c) => c.notNull().references('photos.id').onDelete('cascade'))
+    // The crop as the sighting stores it (JSON of fractions), '' for the whole photo.
+    .addColumn('crop', 'text', (c) => c.notNull())
+    .addColumn('vocabulary', 'text', (c) => c.notNull())
+    .addColumn('keypoints', 'integer', (c) => c.notNull())
+    .addColumn('features', 'blob', (c) => c.notNull())
+    .addColumn('computed_at', 'text', (c) => c.notNull())
+    .addPrimaryKeyConstraint('pattern_features_pk', ['photo_id', 'crop'])
+    .execute();
+}
+
+/** Drops the table. */
+export async function down(db: Kysely<unknown>): Promise<void> {
+  await db.schema.dropTable('pattern_features').ifExists().execute();
+}
