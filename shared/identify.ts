@@ -198,6 +198,9 @@ export interface PatternMatchesView {
   mirrored: boolean;
   /** [sighting x, y, reference x, y] per pair. */
   pairs: [number, number, number, number][];
+  /** Pixel sizes of the two photos (for drawing them side by side at their own aspect ratios). */
+  sightingPhoto: { width: number; height: number };
+  referencePhoto: { width: number; height: number };
 }
 
 /** Answer of `POST /api/projects/:slug/sightings/:id/calls`. */

@@ -33,6 +33,11 @@ export function bumpCatalogue(projectId: string): void {
   versions.set(projectId, (versions.get(projectId) ?? 0) + 1);
 }
 
+/** How many times a project's catalogue has changed in this process (for caches built on it). */
+export function catalogueVersion(projectId: string): number {
+  return versions.get(projectId) ?? 0;
+}
+
 /** The fuse.js options used everywhere the catalogue is searched by text. */
 export const CATALOGUE_SEARCH = {
   keys: [

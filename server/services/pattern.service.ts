@@ -17,6 +17,7 @@ import { deserializeFeatures, serializeFeatures } from '../pattern/serialize';
 import type { FeatureSet, RankedCandidate } from '../pattern/types';
 import { defaultVocabulary } from '../pattern/vocabulary';
 import { ApiError } from '../errors/api-error';
+import { catalogueVersion } from './catalogue-cache';
 import { enqueueJob } from './jobs.service';
 
 /** What a pattern job computes: one photo inside one crop ('' = whole photo). */
@@ -77,6 +78,12 @@ export async function queuePatternFeatures(db: Db, job: PatternJob): Promise<boo
     .where('vocabulary', '=', currentVocabulary())
     .executeTakeFirst();
   if (stored) return false;
+  const photo = await db
+    .selectFrom('photos')
+    .select('stored_path')
+    .where('id', '=', job.photoId)
+    .executeTakeFirst();
+  if (!photo?.stored_path) return false;
   await enqueueJob(db, 'pattern', { photoId: job.photoId, crop: job.crop });
   return true;
 }
@@ -159,6 +166,8 @@ export function patternFeaturesHandler(
 
 /** A project's reference photos indexed for the shortlist, with where their features live. */
 interface ProjectCatalogue {
+  /** Catalogue version, feature rows and latest computation: unchanged means nothing to rebuild. */
+  readonly quick: string;
   readonly signature: string;
   readonly catalogue: PatternCatalogue;
   readonly cropOf: ReadonlyMap<string, string>;
@@ -188,12 +197,22 @@ async function referenceRows(db: Db, projectId: string) {
 
 /** The project's catalogue, rebuilt only when its references or their features changed. */
 async function projectCatalogue(db: Db, projectId: string): Promise<ProjectCatalogue> {
+  const stats = await db
+    .selectFrom('pattern_features')
+    .select((eb) => [eb.fn.countAll<number>().as('n'), eb.fn.max('computed_at').as('latest')])
+    .executeTakeFirst();
+  const quick = `${catalogueVersion(projectId)}|${stats?.n ?? 0}|${stats?.latest ?? ''}`;
+  const known = catalogues.get(projectId);
+  if (known && known.quick === quick) return known;
   const rows = await referenceRows(db, projectId);
   const signature = rows
     .map((r) => `${r.individual_id}/${r.flank}/${r.photo_id}/${r.computed_at}`)
     .join('|');
-  const cached = catalogues.get(projectId);
-  if (cached && cached.signature === signature) return cached;
+  if (known && known.signature === signature) {
+    const same = { ...known, quick };
+    catalogues.set(projectId, same);
+    return same;
+  }
   const catalogue = new PatternCatalogue();
   const cropOf = new Map<string, string>();
   for (const r of rows) {
@@ -205,7 +224,7 @@ async function projectCatalogue(db: Db, projectId: string): Promise<ProjectCatal
     );
     cropOf.set(r.photo_id, r.crop);
   }
-  const built = { signature, catalogue, cropOf };
+  const built = { quick, signature, catalogue, cropOf };
   catalogues.set(projectId, built);
   return built;
 }
@@ -363,6 +382,8 @@ export async function patternMatches(
       ...toPhoto(q, qx, qy),
       ...toPhoto(r, rx, ry),
     ]),
+    sightingPhoto: { width: q.photoWidth, height: q.photoHeight },
+    referencePhoto: { width: r.photoWidth, height: r.photoHeight },
   };
 }
 

@@ -151,6 +151,8 @@ describe('coat pattern on the Identify screen', () => {
     expect(res.body.inliers).toBeGreaterThanOrEqual(10);
     expect(res.body.pairs).toHaveLength(res.body.inliers);
     expect(res.body.mirrored).toBe(false);
+    expect(res.body.sightingPhoto).toEqual({ width: SHAPE.width, height: SHAPE.height });
+    expect(res.body.referencePhoto).toEqual({ width: SHAPE.width, height: SHAPE.height });
     for (const pair of res.body.pairs as number[][]) {
       expect(pair).toHaveLength(4);
       for (const v of pair) expect(v >= 0 && v <= 1).toBe(true);

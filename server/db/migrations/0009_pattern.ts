@@ -20,9 +20,22 @@ export async function up(db: Kysely<unknown>): Promise<void> {
     .addColumn('computed_at', 'text', (c) => c.notNull())
     .addPrimaryKeyConstraint('pattern_features_pk', ['photo_id', 'crop'])
     .execute();
+  // Has anything been computed since? (a cheap check before the catalogue index is rebuilt)
+  await db.schema
+    .createIndex('pattern_features_computed')
+    .on('pattern_features')
+    .column('computed_at')
+    .execute();
+  // A reference photo's crop is the crop of the sighting that chose it as best photo.
+  await db.schema
+    .createIndex('sightings_best_photo')
+    .on('sightings')
+    .column('best_photo_id')
+    .execute();
 }
 
-/** Drops the table. */
+/** Drops the table and the index. */
 export async function down(db: Kysely<unknown>): Promise<void> {
+  await db.schema.dropIndex('sightings_best_photo').ifExists().execute();
   await db.schema.dropTable('pattern_features').ifExists().execute();
 }
