@@ -14,6 +14,7 @@ describe('identifyKeyAction', () => {
     expect(identifyKeyAction('ArrowUp')).toBe('previous-candidate');
     expect(identifyKeyAction('ArrowRight')).toBe('next-photo');
     expect(identifyKeyAction('f')).toBe('mirror');
+    expect(identifyKeyAction('P')).toBe('matched-points');
     expect(identifyKeyAction('+')).toBe('zoom-in');
     expect(identifyKeyAction('0')).toBe('zoom-reset');
     expect(identifyKeyAction('/')).toBe('search');

@@ -10,6 +10,7 @@ export type IdentifyAction =
   | 'unidentifiable'
   | 'skip'
   | 'mirror'
+  | 'matched-points'
   | 'zoom-in'
   | 'zoom-out'
   | 'zoom-reset'
@@ -34,6 +35,7 @@ const KEYS: Record<string, IdentifyAction> = {
   x: 'unidentifiable',
   s: 'skip',
   f: 'mirror',
+  p: 'matched-points',
   '+': 'zoom-in',
   '=': 'zoom-in',
   '-': 'zoom-out',
@@ -61,6 +63,7 @@ export const IDENTIFY_HELP: [string, string][] = [
   ['X', 'unidentifiable'],
   ['S', 'skip for now'],
   ['F', 'mirror the reference'],
+  ['P', 'show / hide matched coat points'],
   ['+ − 0', 'zoom both photos'],
   [', .', 'darker / brighter'],
   ["; '", 'less / more contrast'],

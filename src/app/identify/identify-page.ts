@@ -18,7 +18,7 @@ import { MatProgressBar } from '@angular/material/progress-bar';
 import { MatSlider, MatSliderThumb } from '@angular/material/slider';
 import { RouterLink } from '@angular/router';
 import { Subject, debounceTime, distinctUntilChanged, switchMap } from 'rxjs';
-import type { Candidate, IdentifyNext } from '../../../shared/identify';
+import type { Candidate, IdentifyNext, PatternMatchesView } from '../../../shared/identify';
 import { apiErrorMessage } from '../core/api-error';
 import { ProjectStore } from '../core/project-store';
 import { EmptyState } from '../ui/empty-state';
@@ -26,6 +26,7 @@ import { NO_ZOOM, ZoomPane, type ZoomState } from '../ui/zoom-pane';
 import { IdentifyApi, type NewIndividual } from './identify-api';
 import { IDENTIFY_HELP, identifyKeyAction, type IdentifyAction } from './identify-keys';
 import { NewIndividualForm } from './new-individual-form';
+import { PatternMatches } from './pattern-matches';
 
 /** Match a sighting to the catalogue: ranked candidates with reasons, a synchronised compare view, verdict keys. */
 @Component({
@@ -42,6 +43,7 @@ import { NewIndividualForm } from './new-individual-form';
     EmptyState,
     ZoomPane,
     NewIndividualForm,
+    PatternMatches,
   ],
   templateUrl: './identify-page.html',
   styleUrl: './identify-page.scss',
@@ -83,6 +85,19 @@ export class IdentifyPage implements OnInit {
   protected readonly reference = computed(() => {
     const refs = this.candidate()?.references ?? [];
     return refs.length ? refs[this.referenceIndex() % refs.length]! : null;
+  });
+  /** Whether the matched coat points are drawn (P). */
+  protected readonly showMatches = signal(false);
+  /** Verified point pairs between the sighting and the reference shown, while drawn. */
+  protected readonly matches = httpResource<PatternMatchesView>(() => {
+    const s = this.sighting();
+    const r = this.reference();
+    if (!this.showMatches() || !s || !r) return undefined;
+    return `/api/projects/${this.slug()}/sightings/${s.id}/pattern-matches/${r.photoId}`;
+  });
+  protected readonly matchesError = computed(() => {
+    const err = this.matches.error();
+    return err ? apiErrorMessage(err) : null;
   });
   /** This reviewer's recent calls and how each sighting ended (disputes included). */
   protected readonly myCalls = httpResource<
@@ -191,6 +206,8 @@ export class IdentifyPage implements OnInit {
         return this.skip();
       case 'mirror':
         return this.mirrored.update((m) => !m);
+      case 'matched-points':
+        return this.showMatches.update((v) => !v);
       case 'zoom-in':
         return this.zoom.update((z) => ({ ...z, scale: Math.min(12, z.scale * 1.25) }));
       case 'zoom-out':
