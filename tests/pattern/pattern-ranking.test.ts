@@ -13,7 +13,8 @@ import {
   type RankedCandidate,
   type ReferenceFeatures,
 } from '../../server/pattern/types';
-import { accuracyTable, outcomeOf, type QueryOutcome } from './evaluation';
+import { rankCandidates as rankWithSignals } from '../../server/services/candidates.service';
+import { accuracyTable, outcomeOf, summarise, type QueryOutcome } from './evaluation';
 import {
   ids,
   planCatalogue,
@@ -24,6 +25,7 @@ import {
   type RenderedSetPhoto,
   type SetShape,
 } from './photo-set';
+import { queryContext, syntheticSurvey } from './survey-context';
 
 const SHAPE: SetShape = { width: 800, height: 600, stations: 8 };
 const INDIVIDUALS = ids('TEST', 15);
@@ -48,6 +50,8 @@ let pool: PatternPool;
 const references: ReferenceFeatures[] = [];
 const referencePhotos = new Map<string, RenderedSetPhoto>();
 const judged: Judged[] = [];
+/** One photo per individual under every difficulty at once (judged only with all signals). */
+const hard: Judged[] = [];
 const unknown: QueryOutcome[] = [];
 
 async function judge(plan: PlannedPhoto): Promise<Judged> {
@@ -71,11 +75,14 @@ beforeAll(async () => {
     referencePhotos.set(plan.photoId, photo);
   }
   for (const plan of queryPlans()) judged.push(await judge(plan));
+  for (const [i, id] of INDIVIDUALS.entries()) {
+    hard.push(await judge(planPhoto(id, i % 2 === 0 ? 'right' : 'left', 'hard', 0, SHAPE)));
+  }
   for (const id of UNKNOWN) {
     for (const c of ['day', 'infrared'] as const)
       unknown.push((await judge(planPhoto(id, 'left', c, 0, SHAPE))).outcome);
   }
-}, 170_000);
+}, 240_000);
 
 afterAll(async () => {
   await pool?.close();
@@ -177,5 +184,79 @@ describe('pattern ranking on held-out synthetic photos', () => {
       expect(o.rank).toBeNull();
       expect(Math.max(0, ...o.falseScores)).toBeLessThan(PATTERN_PARAMS.matchThreshold);
     }
+  });
+});
+
+/** 1-based rank of an individual in a list of ids (null when absent). */
+function rankOf(ids: readonly string[], id: string): number | null {
+  const at = ids.indexOf(id);
+  return at >= 0 ? at + 1 : null;
+}
+
+function topK(ranks: readonly (number | null)[], k: number): number {
+  return ranks.filter((r) => r !== null && r <= k).length / ranks.length;
+}
+
+describe('pattern combined with the text and space-time signals', () => {
+  const survey = () => syntheticSurvey(INDIVIDUALS);
+
+  /** The three rankings of one query: pattern alone, text and space alone, all signals. */
+  function rankings(j: Judged) {
+    const s = survey();
+    const plan = j.photo.plan;
+    const ctx = queryContext(s, plan.photoId, plan.individualId, plan.flank);
+    const pattern = new Map(
+      j.ranked.map((c) => [
+        c.individualId,
+        { score: c.score, inliers: c.inliers, mirrored: c.mirrored },
+      ]),
+    );
+    return {
+      pattern: j.ranked.map((c) => c.individualId),
+      textSpace: rankWithSignals(s.pool, ctx).map((c) => c.individualId),
+      combined: rankWithSignals(s.pool, { ...ctx, pattern }).map((c) => c.individualId),
+      reasons: rankWithSignals(s.pool, { ...ctx, pattern }).flatMap((c) => c.reasons),
+    };
+  }
+
+  it('should rank better with all signals than with the pattern or text and space alone', () => {
+    const rows = [...judged, ...hard].map((j) => ({ j, r: rankings(j) }));
+    const id = (x: (typeof rows)[number]) => x.j.photo.plan.individualId;
+    const table = (['pattern', 'textSpace', 'combined'] as const).map((k) => {
+      const ranks = rows.map((x) => rankOf(x.r[k], id(x)));
+      return { ranking: k, top1: topK(ranks, 1), top5: topK(ranks, 5) };
+    });
+    console.log(
+      `\nHeld-out queries (synthetic: ${judged.length} single-condition, ${hard.length} hard), top-1 / top-5 by ranking`,
+    );
+    console.table(table);
+    const [pattern, textSpace, combined] = table;
+    // Space and text alone cannot tell apart neighbours with similar notes; the pattern can.
+    expect(combined!.top1).toBeGreaterThan(textSpace!.top1);
+    expect(combined!.top5).toBeGreaterThan(textSpace!.top5);
+    // Where the pattern finds little (the hard photos), space and text still place the animal.
+    expect(combined!.top1).toBeGreaterThanOrEqual(pattern!.top1);
+    expect(combined!.top5).toBeGreaterThan(pattern!.top5);
+    const hardPattern = hard.filter((j) => j.outcome.rank === 1).length;
+    console.log(`hard photos: pattern alone ranks ${hardPattern} of ${hard.length} first`);
+    expect(
+      rows.some((x) => x.r.reasons.some((r) => /^pattern: \d+ matching points/.test(r.text))),
+    ).toBe(true);
+  });
+
+  it('should print the score distributions of true and false pairs', () => {
+    const trueScores = judged.map((j) => j.outcome.trueScore);
+    const falseScores = judged.flatMap((j) => j.outcome.falseScores);
+    const unknownScores = unknown.map((o) => Math.max(0, ...o.falseScores));
+    const rows = {
+      'true individual': summarise(trueScores),
+      'wrong individuals': summarise(falseScores),
+      'best, not catalogued': summarise(unknownScores),
+    };
+    console.log('\nPattern scores (synthetic held-out photos)');
+    console.table(rows);
+    expect(rows['true individual'].median).toBeGreaterThan(PATTERN_PARAMS.matchThreshold);
+    expect(rows['wrong individuals'].p95).toBeLessThan(PATTERN_PARAMS.matchThreshold);
+    expect(rows['best, not catalogued'].max).toBeLessThan(PATTERN_PARAMS.matchThreshold);
   });
 });

@@ -12,7 +12,15 @@ import type { PixelCrop, RgbaPixels } from '../../server/pattern/types';
 
 /** How a photo was taken: references are clean day photos; queries vary one condition each. */
 export type Condition =
-  'reference' | 'day' | 'infrared' | 'mirrored' | 'blurred' | 'occluded' | 'pose';
+  | 'reference'
+  | 'day'
+  | 'infrared'
+  | 'mirrored'
+  | 'blurred'
+  | 'occluded'
+  | 'pose'
+  /** Infrared, far, turned, blurred and half hidden at once: where the pattern alone struggles. */
+  | 'hard';
 
 /** Query conditions, in the order they are reported. */
 export const QUERY_CONDITIONS: readonly Condition[] = [
@@ -61,6 +69,15 @@ function variationFor(condition: Condition, rng: Rng): Partial<Variation> {
   if (condition === 'mirrored') return { ...base, mirror: true };
   if (condition === 'blurred') return { ...base, motionBlur: rng.range(0.01, 0.025) };
   if (condition === 'occluded') return { ...base, occlusion: rng.range(0.15, 0.25) };
+  if (condition === 'hard') {
+    return {
+      ...base,
+      yawDeg: rng.pick([-1, 1]) * rng.range(20, 30),
+      distanceM: rng.range(6, 8),
+      motionBlur: rng.range(0.025, 0.04),
+      occlusion: rng.range(0.3, 0.45),
+    };
+  }
   if (condition === 'pose') {
     return { ...base, yawDeg: rng.pick([-1, 1]) * rng.range(20, 30), distanceM: rng.range(5, 7.5) };
   }
@@ -84,7 +101,7 @@ export function planPhoto(
     seed: hashString(`${photoId}#seed`),
     station,
     camera: rng.pick(['A', 'B']),
-    lighting: condition === 'infrared' ? 'infrared' : 'day',
+    lighting: condition === 'infrared' || condition === 'hard' ? 'infrared' : 'day',
     subject: { kind: 'target', individual: individualId, flank },
     variation: variationFor(condition, rng),
   };
