@@ -8,6 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { exifTime } from '../../seeds/photos/exif';
 import { renderPhoto } from '../../seeds/photos/index';
 import { newId } from '../../server/services/ids';
+import { queueMissingPatternWork } from '../../server/services/pattern.service';
 import { planPhoto, reviewerCrop, type Condition } from '../pattern/photo-set';
 import { drainJobs } from '../support/demo-fixture';
 import { addDeployment, addStation, upload, waitForUpload } from '../support/ingest-helpers';
@@ -179,5 +180,23 @@ describe('coat pattern on the Identify screen', () => {
       url(`/sightings/${sightings[2]}/pattern-matches/${photos[0]}`),
     );
     expect(refused.status).toBe(403);
+  });
+
+  it('should find and queue features that are missing, as at start-up after seeding or an import', async () => {
+    await drainJobs(ctx.db, 90_000);
+    expect(await queueMissingPatternWork(ctx.db)).toBe(0);
+    await ctx.db.deleteFrom('pattern_features').where('photo_id', '=', photos[1]!).execute();
+    expect(await queueMissingPatternWork(ctx.db)).toBe(1);
+    // Already queued: not queued twice.
+    expect(await queueMissingPatternWork(ctx.db)).toBe(0);
+    ctx.ingest.runner.kick();
+    await drainJobs(ctx.db, 90_000);
+    const row = await ctx.db
+      .selectFrom('pattern_features')
+      .select(['crop', 'vocabulary', 'keypoints'])
+      .where('photo_id', '=', photos[1]!)
+      .executeTakeFirstOrThrow();
+    expect(JSON.parse(row.crop)).toMatchObject({ x: expect.any(Number), w: expect.any(Number) });
+    expect(row.keypoints).toBeGreaterThan(100);
   });
 });
