@@ -8,6 +8,7 @@ import * as m0005 from './migrations/0005_curate';
 import * as m0006 from './migrations/0006_analyses';
 import * as m0007 from './migrations/0007_exports';
 import * as m0008 from './migrations/0008_sort_queue';
+import * as m0009 from './migrations/0009_identify_queue';
 
 /** Migrations in order; imported statically so they work the same under tsx, tests and builds. */
 const MIGRATIONS: Record<string, Migration> = {
@@ -19,6 +20,7 @@ const MIGRATIONS: Record<string, Migration> = {
   '0006_analyses': m0006,
   '0007_exports': m0007,
   '0008_sort_queue': m0008,
+  '0009_identify_queue': m0009,
 };
 
 class StaticProvider implements MigrationProvider {

@@ -14,6 +14,7 @@ import { projectOf, projectRole, userOf } from '../middleware/access';
 import { parseWith } from '../middleware/validate';
 import { makeCall } from '../services/calls.service';
 import { CATALOGUE_SEARCH, textScores } from '../services/catalogue-cache';
+import { CatalogueSearch } from '../services/catalogue-search';
 import {
   candidatesFor,
   leaseNextSighting,
@@ -27,7 +28,6 @@ import {
   setReferences,
   updateIndividual,
 } from '../services/individuals.service';
-import Fuse from 'fuse.js';
 
 declare module 'express-session' {
   interface SessionData {
@@ -60,11 +60,11 @@ function filterCatalogue(
     : [];
   if (exact.length) return exact;
   if (text) {
-    const fuse = new Fuse(list, {
+    const search = new CatalogueSearch(list, {
       ...CATALOGUE_SEARCH,
       keys: [...CATALOGUE_SEARCH.keys, { name: 'aliases', weight: 3 }],
     });
-    const scores = textScores(fuse, text);
+    const scores = textScores(search, text);
     list = list
       .filter((e) => (scores.get(e.id) ?? 0) > 0)
       .sort((x, y) => (scores.get(y.id) ?? 0) - (scores.get(x.id) ?? 0));
