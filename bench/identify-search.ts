@@ -8,7 +8,7 @@
  */
 import Fuse from 'fuse.js';
 import { CATALOGUE_SEARCH, textScores } from '../server/services/catalogue-cache';
-import { CatalogueSearch } from '../server/services/catalogue-search';
+import { CatalogueSearch, SHORTLIST_SIZE } from '../server/services/catalogue-search';
 import { Rng } from '../seeds/photos/random';
 import { searchQueries, syntheticDescription, type SearchQuery } from './identify-text';
 import { percentile, round } from './report';
@@ -113,7 +113,7 @@ export function measureSearch(
   const warm = new CatalogueSearch(warmEntries, CATALOGUE_SEARCH);
   const warmFuse = new Fuse(warmEntries, CATALOGUE_SEARCH);
   for (const q of searchQueries(rng.fork('warm-up'), 50, ['BN-001'])) {
-    textScores(warm, q.text);
+    textScores(warm, q.text, SHORTLIST_SIZE);
     textScores(warmFuse, q.text);
   }
 
@@ -129,7 +129,7 @@ export function measureSearch(
   for (const query of list) {
     if (budgetSeconds > 0 && performance.now() > deadline) break;
     const t0 = performance.now();
-    const scores = textScores(search, query.text);
+    const scores = textScores(search, query.text, SHORTLIST_SIZE);
     const ms = performance.now() - t0;
     const t1 = performance.now();
     const base = textScores(fuse, query.text);

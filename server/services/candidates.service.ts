@@ -1,5 +1,6 @@
 import type { Candidate, CandidateReason } from '../../shared/identify';
 import { textScores, type CandidatePool, type PoolEntry } from './catalogue-cache';
+import { SHORTLIST_SIZE } from './catalogue-search';
 
 /** The sighting as ranking sees it. */
 export interface RankingContext {
@@ -130,7 +131,7 @@ function flankSignal(
  */
 export function rankCandidates(pool: CandidatePool, ctx: RankingContext, limit = 20): Candidate[] {
   const query = ctx.query?.trim();
-  const text = query ? textScores(pool.search, query) : new Map<string, number>();
+  const text = query ? textScores(pool.search, query, SHORTLIST_SIZE) : new Map<string, number>();
   const assess = (entry: PoolEntry, explain: boolean) => {
     const reasons: CandidateReason[] = [];
     let score = 0;

@@ -29,6 +29,11 @@ export interface CandidatePool {
 const versions = new Map<string, number>();
 const pools = new Map<string, CandidatePool>();
 
+/** How often a project's catalogue has changed since the server started (a cache key). */
+export function catalogueVersion(projectId: string): number {
+  return versions.get(projectId) ?? 0;
+}
+
 /** Marks a project's catalogue as changed (new individual, call, merge, edit). */
 export function bumpCatalogue(projectId: string): void {
   versions.set(projectId, (versions.get(projectId) ?? 0) + 1);
@@ -110,6 +115,7 @@ export async function candidatePool(db: Db, projectId: string): Promise<Candidat
 export function textScores<T extends { id: string }>(
   searcher: { search(phrase: string, options: { limit: number }): FuseResult<T>[] },
   query: string,
+  limit = 500,
 ): Map<string, number> {
   const phrases = query
     .split(/[,;+]|\band\b/i)
@@ -118,7 +124,7 @@ export function textScores<T extends { id: string }>(
   const scores = new Map<string, number>();
   if (phrases.length === 0) return scores;
   for (const phrase of phrases) {
-    for (const hit of searcher.search(phrase, { limit: 500 })) {
+    for (const hit of searcher.search(phrase, { limit })) {
       const s = (1 - (hit.score ?? 1)) / phrases.length;
       scores.set(hit.item.id, (scores.get(hit.item.id) ?? 0) + s);
     }

@@ -16,7 +16,10 @@ export type CatalogueSearchOptions<T> = Omit<IFuseOptions<T>, 'keys'> & { keys: 
  */
 export const DIRECT_SEARCH_LIMIT = 300;
 
-/** How many individuals the trigram index hands to fuse.js for each phrase. */
+/**
+ * How many individuals candidate ranking asks for per phrase: the trigram index hands this many to
+ * fuse.js. A caller asking for more (the catalogue page lists every match) gets a longer shortlist.
+ */
 export const SHORTLIST_SIZE = 40;
 
 /** The texts of one field: a string, or each string of a list (fuse.js matches each on its own). */
@@ -55,6 +58,7 @@ export class CatalogueSearch<T extends { id: string }> {
   private readonly scores: Float64Array;
   private readonly lengths: Uint32Array;
   private indexed = false;
+  private whole: Fuse<T> | null = null;
   /** Each individual's texts (one per field, or per list element), lower-cased, with key weights. */
   private readonly texts: { text: string; weight: number }[][] = [];
 
@@ -113,10 +117,10 @@ export class CatalogueSearch<T extends { id: string }> {
   }
 
   /**
-   * The individuals sharing the most telling trigrams with the phrase, at most SHORTLIST_SIZE;
+   * The individuals sharing the most telling trigrams with the phrase, at most `size`;
    * among equals the shorter text first, as fuse.js's field-length norm prefers it.
    */
-  shortlist(phrase: string): T[] {
+  shortlist(phrase: string, size = SHORTLIST_SIZE): T[] {
     this.prepare();
     const scores = this.scores;
     scores.fill(0);
@@ -136,26 +140,33 @@ export class CatalogueSearch<T extends { id: string }> {
       if (scores[i]! < full - 1e-9) continue;
       for (const t of this.texts[i]!) if (t.text.includes(words)) scores[i]! += full * t.weight;
     }
-    // Keep the best SHORTLIST_SIZE in a small sorted array (insertion; the list is short).
+    // Keep the best `size` in a sorted array (insertion: cheap while the list is short).
     const best: number[] = [];
     const better = (a: number, b: number) =>
       scores[a]! > scores[b]! || (scores[a] === scores[b] && this.lengths[a]! < this.lengths[b]!);
     for (let i = 0; i < scores.length; i++) {
       if (scores[i] === 0) continue;
-      if (best.length === SHORTLIST_SIZE && !better(i, best[best.length - 1]!)) continue;
+      if (best.length === size && !better(i, best[best.length - 1]!)) continue;
       let at = best.length;
       while (at > 0 && better(i, best[at - 1]!)) at--;
       best.splice(at, 0, i);
-      if (best.length > SHORTLIST_SIZE) best.pop();
+      if (best.length > size) best.pop();
     }
     return best.map((i) => this.items[i]!);
   }
 
-  /** Matches for one phrase, best first, as fuse.js reports them. */
+  /**
+   * Up to `limit` matches for one phrase, best first, as fuse.js reports them. A limit of a tenth
+   * of the catalogue or more searches it whole (a shortlist that long saves little).
+   */
   search(phrase: string, options: { limit?: number } = {}): FuseResult<T>[] {
-    const limit = options.limit ?? 500;
+    const limit = options.limit ?? SHORTLIST_SIZE;
     if (this.fuse) return this.fuse.search(phrase, { limit });
-    const shortlist = this.shortlist(phrase);
+    if (limit * 10 >= this.items.length) {
+      this.whole ??= new Fuse(this.items, this.options);
+      return this.whole.search(phrase, { limit });
+    }
+    const shortlist = this.shortlist(phrase, Math.max(limit, SHORTLIST_SIZE));
     if (shortlist.length === 0) return [];
     return new Fuse(shortlist, this.options).search(phrase, { limit });
   }

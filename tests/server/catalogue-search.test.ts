@@ -98,7 +98,7 @@ describe('CatalogueSearch', () => {
     const items = catalogue(1500, 'phrases');
     const target = items[77]!;
     const query = target.tags.slice(0, 2).join(', ');
-    const scores = textScores(new CatalogueSearch(items, CATALOGUE_SEARCH), query);
+    const scores = textScores(new CatalogueSearch(items, CATALOGUE_SEARCH), query, SHORTLIST_SIZE);
     const best = Math.max(...scores.values());
     // The animal whose two marks were typed scores within 3 % of the best (others may hold both
     // marks too, in shorter notes, which fuse.js prefers).
