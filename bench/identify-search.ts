@@ -1,11 +1,14 @@
 /**
- * Catalogue text search in this process, one thread, no database: fuse.js with the app's own
- * options (`CATALOGUE_SEARCH`) over synthetic individuals' codes, nicknames, marking notes and
- * tags, queried through `textScores` as candidate ranking does (a description split into phrases,
- * each phrase searched over every individual).
+ * Catalogue text search in this process, one thread, no database, over synthetic individuals'
+ * codes, nicknames, marking notes and tags, queried through `textScores` as candidate ranking does
+ * (a description split into phrases, each phrase searched on its own). Two searchers answer every
+ * query in turn: the app's `CatalogueSearch` (word-index shortlist, then fuse.js) and, as the
+ * baseline, fuse.js with the same options over every individual. Besides the times, the run
+ * reports how often both find the same best score and how many of the top five scores agree.
  */
 import Fuse from 'fuse.js';
 import { CATALOGUE_SEARCH, textScores } from '../server/services/catalogue-cache';
+import { CatalogueSearch, SHORTLIST_SIZE } from '../server/services/catalogue-search';
 import { Rng } from '../seeds/photos/random';
 import { searchQueries, syntheticDescription, type SearchQuery } from './identify-text';
 import { percentile, round } from './report';
@@ -26,12 +29,21 @@ export interface SearchFigures {
   queries: number;
   timed: number;
   budgetSeconds: number;
-  /** Building the fuse.js index over every individual (median of three builds, ms). */
+  /** Building the app's searcher over every individual (median of three builds, ms). */
   indexBuildMs: number;
   indexBuilds: number[];
-  /** `textScores` per query, as ranking calls it, over all queries and by kind of query. */
+  /** The baseline's index build (fuse.js over every individual), ms. */
+  baselineIndexBuildMs: number;
+  /** `textScores` per query with the app's searcher, over all queries and by kind of query. */
   all: Spread & { meanHits: number };
   byKind: Record<string, Spread>;
+  /** The same queries through fuse.js over every individual. */
+  baseline: Spread & { meanHits: number };
+  /** Baseline median ÷ app median. */
+  speedup: number;
+  /** Share of queries where both find the same best score, and of top-five scores found. */
+  sameBest: number;
+  topFiveOverlap: number;
   /** The slowest queries, for looking into. */
   slowest: { query: string; ms: number }[];
   examples: string[];
@@ -66,6 +78,13 @@ function catalogue(individuals: number, rng: Rng) {
  * most `budgetSeconds` of searching (0: no limit); queries come in random order, so the ones timed
  * are a fair sample of the kinds.
  */
+function topIds(scores: Map<string, number>, n: number): string[] {
+  return [...scores]
+    .sort((a, b) => b[1] - a[1] || (a[0] < b[0] ? -1 : 1))
+    .slice(0, n)
+    .map(([id]) => id);
+}
+
 export function measureSearch(
   individuals: number,
   queries: number,
@@ -74,36 +93,67 @@ export function measureSearch(
   const rng = new Rng(2026).fork('bench-identify-search');
   const entries = catalogue(individuals, rng);
   const indexBuilds: number[] = [];
-  let fuse = new Fuse(entries, CATALOGUE_SEARCH);
+  let search = new CatalogueSearch(entries, CATALOGUE_SEARCH);
   for (let i = 0; i < 3; i++) {
     const t0 = performance.now();
-    fuse = new Fuse(entries, CATALOGUE_SEARCH);
+    search = new CatalogueSearch(entries, CATALOGUE_SEARCH);
+    search.prepare();
     indexBuilds.push(round(performance.now() - t0, 1));
   }
+  const b0 = performance.now();
+  const fuse = new Fuse(entries, CATALOGUE_SEARCH);
+  const baselineIndexBuildMs = round(performance.now() - b0, 1);
   const list: SearchQuery[] = searchQueries(
     rng.fork('queries'),
     queries,
     entries.map((e) => e.code),
   );
   // Warm the JIT on a small catalogue of its own before timing.
-  const warm = new Fuse(catalogue(200, rng.fork('warm-up')), CATALOGUE_SEARCH);
-  for (const q of searchQueries(rng.fork('warm-up'), 50, ['BN-001'])) textScores(warm, q.text);
+  const warmEntries = catalogue(400, rng.fork('warm-up'));
+  const warm = new CatalogueSearch(warmEntries, CATALOGUE_SEARCH);
+  const warmFuse = new Fuse(warmEntries, CATALOGUE_SEARCH);
+  for (const q of searchQueries(rng.fork('warm-up'), 50, ['BN-001'])) {
+    textScores(warm, q.text, SHORTLIST_SIZE);
+    textScores(warmFuse, q.text);
+  }
 
   const times: number[] = [];
+  const baseTimes: number[] = [];
   const byKind = new Map<string, number[]>();
   const timed: { query: string; ms: number }[] = [];
   let hits = 0;
+  let baseHits = 0;
+  let sameBest = 0;
+  let overlap = 0;
   const deadline = performance.now() + budgetSeconds * 1000;
   for (const query of list) {
     if (budgetSeconds > 0 && performance.now() > deadline) break;
     const t0 = performance.now();
-    const scores = textScores(fuse, query.text);
+    const scores = textScores(search, query.text, SHORTLIST_SIZE);
     const ms = performance.now() - t0;
+    const t1 = performance.now();
+    const base = textScores(fuse, query.text);
+    baseTimes.push(performance.now() - t1);
     times.push(ms);
     byKind.set(query.kind, [...(byKind.get(query.kind) ?? []), ms]);
     timed.push({ query: query.text, ms: round(ms, 1) });
     hits += scores.size;
+    baseHits += base.size;
+    const ours = topIds(scores, 5);
+    const theirs = topIds(base, 5);
+    // Ties are common (many animals share a mark), so compare scores, not ids: the same best
+    // score means no better match was missed; the overlap counts top-five scores found.
+    const ourScores = ours.map((id) => scores.get(id)!);
+    const theirScores = theirs.map((id) => base.get(id)!);
+    if (theirScores.length === 0 || Math.abs((ourScores[0] ?? 0) - theirScores[0]!) < 1e-9)
+      sameBest++;
+    if (theirScores.length)
+      overlap +=
+        theirScores.filter((v, k) => Math.abs((ourScores[k] ?? -1) - v) < 1e-9).length /
+        theirScores.length;
   }
+  const all = { ...spread(times), meanHits: round(hits / times.length, 1) };
+  const baseline = { ...spread(baseTimes), meanHits: round(baseHits / baseTimes.length, 1) };
   return {
     individuals,
     queries: list.length,
@@ -111,8 +161,13 @@ export function measureSearch(
     budgetSeconds,
     indexBuildMs: round(median(indexBuilds), 1),
     indexBuilds,
-    all: { ...spread(times), meanHits: round(hits / times.length, 1) },
+    baselineIndexBuildMs,
+    all,
     byKind: Object.fromEntries([...byKind].map(([kind, ms]) => [kind, spread(ms)])),
+    baseline,
+    speedup: round(baseline.medianMs / all.medianMs, 1),
+    sameBest: round(sameBest / times.length, 3),
+    topFiveOverlap: round(overlap / times.length, 3),
     slowest: timed.sort((a, b) => b.ms - a.ms).slice(0, 5),
     examples: list.slice(0, 8).map((q) => q.text),
     meanNotesChars: round(entries.reduce((s, e) => s + e.notes.length, 0) / entries.length, 0),

@@ -8,7 +8,8 @@ import * as m0005 from './migrations/0005_curate';
 import * as m0006 from './migrations/0006_analyses';
 import * as m0007 from './migrations/0007_exports';
 import * as m0008 from './migrations/0008_sort_queue';
-import * as m0009 from './migrations/0009_pattern';
+import * as m0009 from './migrations/0009_identify_queue';
+import * as m0010 from './migrations/0010_pattern';
 
 /** Migrations in order; imported statically so they work the same under tsx, tests and builds. */
 const MIGRATIONS: Record<string, Migration> = {
@@ -20,7 +21,8 @@ const MIGRATIONS: Record<string, Migration> = {
   '0006_analyses': m0006,
   '0007_exports': m0007,
   '0008_sort_queue': m0008,
-  '0009_pattern': m0009,
+  '0009_identify_queue': m0009,
+  '0010_pattern': m0010,
 };
 
 class StaticProvider implements MigrationProvider {

@@ -13,7 +13,8 @@ import { ApiError } from '../errors/api-error';
 import { projectOf, projectRole, userOf } from '../middleware/access';
 import { parseWith } from '../middleware/validate';
 import { makeCall } from '../services/calls.service';
-import { CATALOGUE_SEARCH, textScores } from '../services/catalogue-cache';
+import { CATALOGUE_SEARCH, catalogueVersion, textScores } from '../services/catalogue-cache';
+import { CatalogueSearch } from '../services/catalogue-search';
 import {
   candidatesWithPattern,
   leaseNextSighting,
@@ -28,7 +29,6 @@ import {
   setReferences,
   updateIndividual,
 } from '../services/individuals.service';
-import Fuse from 'fuse.js';
 
 declare module 'express-session' {
   interface SessionData {
@@ -40,7 +40,28 @@ declare module 'express-session' {
 const candidatesQuerySchema = z.object({ q: z.string().max(300).optional() }).strict();
 const skipBodySchema = z.object({ sightingId: idSchema }).strict();
 
+const CATALOGUE_KEYS = {
+  ...CATALOGUE_SEARCH,
+  keys: [...CATALOGUE_SEARCH.keys, { name: 'aliases', weight: 3 }],
+};
+const catalogueSearchers = new Map<
+  string,
+  { version: number; count: number; search: CatalogueSearch<CatalogueEntry> }
+>();
+
+/** The catalogue's text index, kept until the catalogue changes (it is costly for thousands). */
+function catalogueSearch(projectId: string, status: string, entries: CatalogueEntry[]) {
+  const key = `${projectId}:${status}`;
+  const version = catalogueVersion(projectId);
+  const cached = catalogueSearchers.get(key);
+  if (cached && cached.version === version && cached.count === entries.length) return cached.search;
+  const search = new CatalogueSearch(entries, CATALOGUE_KEYS);
+  catalogueSearchers.set(key, { version, count: entries.length, search });
+  return search;
+}
+
 function filterCatalogue(
+  projectId: string,
   entries: CatalogueEntry[],
   query: z.infer<typeof catalogueQuerySchema>,
   stationCodes: Set<string> | null,
@@ -61,11 +82,10 @@ function filterCatalogue(
     : [];
   if (exact.length) return exact;
   if (text) {
-    const fuse = new Fuse(list, {
-      ...CATALOGUE_SEARCH,
-      keys: [...CATALOGUE_SEARCH.keys, { name: 'aliases', weight: 3 }],
-    });
-    const scores = textScores(fuse, text);
+    // Other filters may leave few of the best text matches: then every match is scored.
+    const filtered = list.length < entries.length;
+    const search = catalogueSearch(projectId, query.status, entries);
+    const scores = textScores(search, text, filtered ? entries.length : query.limit);
     list = list
       .filter((e) => (scores.get(e.id) ?? 0) > 0)
       .sort((x, y) => (scores.get(y.id) ?? 0) - (scores.get(x.id) ?? 0));
@@ -161,7 +181,9 @@ export function identifyRoutes({ db, ingest }: AppDeps): Router {
         .executeTakeFirst();
       stationCodes = new Set(station ? [station.code] : []);
     }
-    res.json(filterCatalogue(await catalogueEntries(db, row, query.status), query, stationCodes));
+    res.json(
+      filterCatalogue(row.id, await catalogueEntries(db, row, query.status), query, stationCodes),
+    );
   });
 
   router.get(

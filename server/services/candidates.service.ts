@@ -1,5 +1,6 @@
 import type { Candidate, CandidateReason } from '../../shared/identify';
 import { textScores, type CandidatePool, type PoolEntry } from './catalogue-cache';
+import { SHORTLIST_SIZE } from './catalogue-search';
 
 /** The sighting as ranking sees it. */
 export interface RankingContext {
@@ -23,27 +24,55 @@ const SPACE_SCALE_M = 3000;
 const RECENCY_DAYS = 30;
 const MAX_SPEED_M_PER_H = 4000;
 
+interface Away {
+  at: { x: number; y: number; code: string };
+  metres: number;
+  near: number;
+}
+
+/** Each station's distance from the sighting's station and its nearness weight, once per ranking. */
+const distanceCache = new WeakMap<RankingContext, Map<string, Away>>();
+function distancesFrom(ctx: RankingContext, here: { x: number; y: number }): Map<string, Away> {
+  let out = distanceCache.get(ctx);
+  if (out) return out;
+  out = new Map();
+  for (const [id, at] of ctx.stations) {
+    const metres = Math.hypot(at.x - here.x, at.y - here.y);
+    const near = Math.exp(-(metres * metres) / (2 * SPACE_SCALE_M * SPACE_SCALE_M));
+    out.set(id, { at, metres, near });
+  }
+  distanceCache.set(ctx, out);
+  return out;
+}
+
+/**
+ * Nearness in space and time to the animal's earlier detections, and a penalty for an impossible
+ * journey; the reasons' wording only when `explain` (ranking scores thousands of animals and words
+ * only the ones it shows).
+ */
 function spaceTime(
   entry: PoolEntry,
   ctx: RankingContext,
+  explain: boolean,
 ): { score: number; reasons: CandidateReason[]; penalty: number } {
   const here = ctx.stations.get(ctx.stationId);
   if (!here || entry.detections.length === 0) return { score: 0, reasons: [], penalty: 1 };
+  const distances = distancesFrom(ctx, here);
   let best = 0;
   let bestText = '';
   let penalty = 1;
   let penaltyText = '';
   for (const d of entry.detections) {
-    const at = ctx.stations.get(d.stationId);
-    if (!at) continue;
-    const metres = Math.hypot(at.x - here.x, at.y - here.y);
+    const away = distances.get(d.stationId);
+    if (!away) continue;
+    const { at, metres, near } = away;
     const hours = Math.abs(ctx.time - d.time) / 3_600_000;
     const days = hours / 24;
-    const near = Math.exp(-(metres * metres) / (2 * SPACE_SCALE_M * SPACE_SCALE_M));
     const recent = Math.exp(-days / RECENCY_DAYS);
     const score = near * (0.5 + 0.5 * recent);
     if (score > best) {
       best = score;
+      if (!explain) continue;
       const where =
         metres < 1
           ? `at this station (${at.code})`
@@ -52,24 +81,31 @@ function spaceTime(
     }
     if (hours > 0 && metres / hours > MAX_SPEED_M_PER_H && metres > 2000 && penalty > 0.35) {
       penalty = 0.35;
-      penaltyText = `seen at ${at.code} ${hours.toFixed(1)} h apart, ${(metres / 1000).toFixed(1)} km away: an unlikely journey`;
+      if (explain)
+        penaltyText = `seen at ${at.code} ${hours.toFixed(1)} h apart, ${(metres / 1000).toFixed(1)} km away: an unlikely journey`;
     }
   }
   const reasons: CandidateReason[] = [];
+  if (!explain) return { score: best, reasons, penalty };
   if (best > 0.05) reasons.push({ signal: 'space-time', weight: best, text: bestText });
   if (penaltyText)
     reasons.push({ signal: 'space-time', weight: -(1 - penalty), text: penaltyText });
   return { score: best, reasons, penalty };
 }
 
+/** Whether the catalogue holds this flank of the animal (a reference photo or a sighting). */
+function knowsFlank(entry: PoolEntry, flank: string): boolean {
+  if (entry.flanks.has(flank) || entry.flanks.has('both')) return true;
+  for (const r of entry.references) if (r.flank === flank) return true;
+  return false;
+}
+
 function flankSignal(
   entry: PoolEntry,
   flank: string,
 ): { score: number; reason: CandidateReason | null } {
-  const refFlanks = new Set<string>(entry.references.map((r) => r.flank));
-  const knows = (f: string) => refFlanks.has(f) || entry.flanks.has(f) || entry.flanks.has('both');
   if (flank === 'left' || flank === 'right') {
-    if (knows(flank))
+    if (knowsFlank(entry, flank))
       return {
         score: 1,
         reason: { signal: 'flank', weight: 0.2, text: `${flank} flank on file to compare` },
@@ -83,7 +119,11 @@ function flankSignal(
       },
     };
   }
-  if (flank === 'both') return { score: knows('left') || knows('right') ? 1 : 0, reason: null };
+  if (flank === 'both')
+    return {
+      score: knowsFlank(entry, 'left') || knowsFlank(entry, 'right') ? 1 : 0,
+      reason: null,
+    };
   return { score: 0.5, reason: null };
 }
 
@@ -95,8 +135,8 @@ function flankSignal(
  */
 export function rankCandidates(pool: CandidatePool, ctx: RankingContext, limit = 20): Candidate[] {
   const query = ctx.query?.trim();
-  const text = query ? textScores(pool.fuse, query) : new Map<string, number>();
-  const ranked = pool.entries.map((entry) => {
+  const text = query ? textScores(pool.search, query, SHORTLIST_SIZE) : new Map<string, number>();
+  const assess = (entry: PoolEntry, explain: boolean) => {
     const reasons: CandidateReason[] = [];
     let score = 0;
     let weights = 0;
@@ -104,14 +144,14 @@ export function rankCandidates(pool: CandidatePool, ctx: RankingContext, limit =
       const t = text.get(entry.id) ?? 0;
       score += 0.45 * t;
       weights += 0.45;
-      if (t > 0.05)
+      if (explain && t > 0.05)
         reasons.push({
           signal: 'text',
           weight: t,
           text: `description matches “${query}” (${Math.round(t * 100)} %)`,
         });
     }
-    const st = spaceTime(entry, ctx);
+    const st = spaceTime(entry, ctx, explain);
     score += 0.35 * st.score;
     weights += 0.35;
     reasons.push(...st.reasons);
@@ -123,7 +163,7 @@ export function rankCandidates(pool: CandidatePool, ctx: RankingContext, limit =
     if (ctx.pattern) {
       score += 0.6 * (pattern?.score ?? 0);
       weights += 0.6;
-      if (pattern && pattern.inliers > 0) {
+      if (explain && pattern && pattern.inliers > 0) {
         reasons.push({
           signal: 'pattern',
           weight: pattern.score,
@@ -143,19 +183,27 @@ export function rankCandidates(pool: CandidatePool, ctx: RankingContext, limit =
       reasons.push({ signal: 'sex', weight: 0.1, text: `also ${entry.sex}` });
     }
     return { entry, score: (score / weights) * factor, reasons };
-  });
-  ranked.sort((a, b) => b.score - a.score || a.entry.code.localeCompare(b.entry.code));
-  return ranked.slice(0, limit).map(({ entry, score, reasons }) => ({
-    individualId: entry.id,
-    code: entry.code,
-    nickname: entry.nickname,
-    score: Math.round(score * 1000) / 1000,
-    reasons: reasons.sort((a, b) => Math.abs(b.weight) - Math.abs(a.weight)),
-    references: relevantReferences(entry, ctx.flank),
-    sex: entry.sex,
-    notes: entry.notes,
-    tags: entry.tags,
-  }));
+  };
+  // Score every animal without wording its reasons, then word the reasons of those shown.
+  const ranked = pool.entries.map((entry) => ({ entry, score: assess(entry, false).score }));
+  ranked.sort(
+    (a, b) =>
+      b.score - a.score || (a.entry.code < b.entry.code ? -1 : a.entry.code > b.entry.code ? 1 : 0),
+  );
+  return ranked
+    .slice(0, limit)
+    .map(({ entry }) => assess(entry, true))
+    .map(({ entry, score, reasons }) => ({
+      individualId: entry.id,
+      code: entry.code,
+      nickname: entry.nickname,
+      score: Math.round(score * 1000) / 1000,
+      reasons: reasons.sort((a, b) => Math.abs(b.weight) - Math.abs(a.weight)),
+      references: relevantReferences(entry, ctx.flank),
+      sex: entry.sex,
+      notes: entry.notes,
+      tags: entry.tags,
+    }));
 }
 
 /** Reference photos of the sighting's flank first (both flanks for a both-flank sighting). */

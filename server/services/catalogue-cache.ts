@@ -1,6 +1,7 @@
-import Fuse from 'fuse.js';
+import type { FuseResult } from 'fuse.js';
 import type { ReferencePhotoView } from '../../shared/identify';
 import type { Db } from '../db/database';
+import { CatalogueSearch } from './catalogue-search';
 import { referencesOf } from './individuals.service';
 
 /** What candidate ranking needs to know about one active individual. */
@@ -22,20 +23,20 @@ export interface CandidatePool {
   version: number;
   entries: PoolEntry[];
   byId: Map<string, PoolEntry>;
-  fuse: Fuse<PoolEntry>;
+  search: CatalogueSearch<PoolEntry>;
 }
 
 const versions = new Map<string, number>();
 const pools = new Map<string, CandidatePool>();
 
+/** How often a project's catalogue has changed since the server started (a cache key). */
+export function catalogueVersion(projectId: string): number {
+  return versions.get(projectId) ?? 0;
+}
+
 /** Marks a project's catalogue as changed (new individual, call, merge, edit). */
 export function bumpCatalogue(projectId: string): void {
   versions.set(projectId, (versions.get(projectId) ?? 0) + 1);
-}
-
-/** How many times a project's catalogue has changed in this process (for caches built on it). */
-export function catalogueVersion(projectId: string): number {
-  return versions.get(projectId) ?? 0;
 }
 
 /** The fuse.js options used everywhere the catalogue is searched by text. */
@@ -100,7 +101,7 @@ export async function candidatePool(db: Db, projectId: string): Promise<Candidat
     version,
     entries,
     byId: new Map(entries.map((e) => [e.id, e])),
-    fuse: new Fuse(entries, CATALOGUE_SEARCH),
+    search: new CatalogueSearch(entries, CATALOGUE_SEARCH),
   };
   pools.set(projectId, pool);
   return pool;
@@ -112,8 +113,9 @@ export async function candidatePool(db: Db, projectId: string): Promise<Candidat
  * an animal matching every phrase ranks above one matching a single phrase well.
  */
 export function textScores<T extends { id: string }>(
-  fuse: Fuse<T>,
+  searcher: { search(phrase: string, options: { limit: number }): FuseResult<T>[] },
   query: string,
+  limit = 500,
 ): Map<string, number> {
   const phrases = query
     .split(/[,;+]|\band\b/i)
@@ -122,7 +124,7 @@ export function textScores<T extends { id: string }>(
   const scores = new Map<string, number>();
   if (phrases.length === 0) return scores;
   for (const phrase of phrases) {
-    for (const hit of fuse.search(phrase, { limit: 500 })) {
+    for (const hit of searcher.search(phrase, { limit })) {
       const s = (1 - (hit.score ?? 1)) / phrases.length;
       scores.set(hit.item.id, (scores.get(hit.item.id) ?? 0) + s);
     }

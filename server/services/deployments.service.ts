@@ -6,13 +6,13 @@ import {
   type UpdateDeploymentBody,
 } from '../../shared/stations';
 import type { Db } from '../db/database';
-import type { DeploymentsTable, StationsTable } from '../db/schema/ingest.table';
+import type { DeploymentsTable, PhotosTable, StationsTable } from '../db/schema/ingest.table';
 import type { ProjectsTable } from '../db/schema/projects.table';
 import { ApiError } from '../errors/api-error';
 import { recordAudit } from './audit.service';
 import { correctedFromWall, wallToUtcMs } from './camera-time';
 import { cameraDays, roundDays } from './effort';
-import { regroupStation } from './events.service';
+import { eligible, regroupStation } from './events.service';
 import { newId, nowIso } from './ids';
 import { photoFlags } from './photo-flags';
 
@@ -140,6 +140,75 @@ export async function createDeployment(
   return row;
 }
 
+type StoredPhoto = Pick<PhotosTable, 'taken_at_exif' | 'flags' | 'gps_lat' | 'gps_lon' | 'serial'>;
+
+/** A photo's corrected time and flags (JSON) under a deployment's times, zone and clock offset. */
+function retimed(
+  p: StoredPhoto,
+  project: ProjectsTable,
+  deployment: DeploymentsTable,
+  station: StationsTable,
+): { takenAt: string | null; flags: string } {
+  const takenAt = correctedFromWall(
+    p.taken_at_exif,
+    deployment.timezone,
+    deployment.clock_offset_seconds,
+  );
+  const flags = photoFlags(
+    {
+      takenAtExif: p.taken_at_exif,
+      takenAt,
+      exifReadable: !p.flags.includes('exif_unreadable'),
+      lat: p.gps_lat,
+      lon: p.gps_lon,
+      serial: p.serial,
+    },
+    { deployment, station, gpsToleranceM: project.gps_tolerance_m },
+  );
+  return { takenAt, flags: JSON.stringify(flags) };
+}
+
+const STORED_PHOTO = ['taken_at_exif', 'flags', 'gps_lat', 'gps_lon', 'serial'] as const;
+
+/**
+ * Refuses a change of a deployment's times, zone or clock that would take the best photo of a
+ * recorded sighting out of every event (before the start, after the end, or otherwise kept out):
+ * its event would go, and the sighting and the calls on it with it. Checked before anything is
+ * written, so a refused change leaves everything as it was.
+ */
+async function assertSightingsKeepTheirPhotos(
+  db: Db,
+  project: ProjectsTable,
+  after: DeploymentsTable,
+  station: StationsTable,
+): Promise<void> {
+  const photos = await db
+    .selectFrom('photos')
+    .select(STORED_PHOTO.map((c) => `photos.${c}` as const))
+    .where('photos.deployment_id', '=', after.id)
+    .where((eb) =>
+      eb.exists(
+        eb
+          .selectFrom('sightings')
+          .select('sightings.id')
+          .whereRef('sightings.best_photo_id', '=', 'photos.id'),
+      ),
+    )
+    .execute();
+  const stranded = photos.filter((p) => {
+    const { takenAt, flags } = retimed(p, project, after, station);
+    return takenAt === null || !eligible(flags);
+  }).length;
+  if (stranded > 0)
+    throw new ApiError(
+      'conflict',
+      `This change would put ${stranded} photo${stranded === 1 ? '' : 's'} with recorded ` +
+        `sightings outside the deployment (before its start, after its end or otherwise kept out ` +
+        `of events), which would remove those sightings and their calls. Nothing was changed: ` +
+        `correct the deployment's start and end first.`,
+    );
+}
+
 /** Recomputes corrected times and flags of a deployment's photos, then regroups its station's events. */
 export async function refreshDeploymentPhotos(
   db: Db,
@@ -149,29 +218,12 @@ export async function refreshDeploymentPhotos(
 ): Promise<void> {
   const photos = await db
     .selectFrom('photos')
-    .select(['id', 'taken_at_exif', 'taken_at', 'flags', 'gps_lat', 'gps_lon', 'serial'])
+    .select(['id', 'taken_at', ...STORED_PHOTO])
     .where('deployment_id', '=', deployment.id)
     .execute();
   await db.transaction().execute(async (trx) => {
     for (const p of photos) {
-      const takenAt = correctedFromWall(
-        p.taken_at_exif,
-        deployment.timezone,
-        deployment.clock_offset_seconds,
-      );
-      const flags = JSON.stringify(
-        photoFlags(
-          {
-            takenAtExif: p.taken_at_exif,
-            takenAt,
-            exifReadable: !p.flags.includes('exif_unreadable'),
-            lat: p.gps_lat,
-            lon: p.gps_lon,
-            serial: p.serial,
-          },
-          { deployment, station, gpsToleranceM: project.gps_tolerance_m },
-        ),
-      );
+      const { takenAt, flags } = retimed(p, project, deployment, station);
       if (takenAt !== p.taken_at || flags !== p.flags) {
         await trx
           .updateTable('photos')
@@ -226,6 +278,18 @@ export async function updateDeployment(
   if (patch.featureType !== undefined) set.feature_type = patch.featureType;
   if (patch.baitUse !== undefined) set.bait_use = patch.baitUse ? 1 : 0;
   if (patch.notes !== undefined) set.notes = patch.notes;
+  const retime = [
+    'start',
+    'end',
+    'timezone',
+    'clockOffsetSeconds',
+    'lastWorking',
+    'cameraSerial',
+  ].some((k) => k in patch);
+  if (retime) {
+    const { station } = await getDeployment(db, project.id, deploymentId);
+    await assertSightingsKeepTheirPhotos(db, project, { ...before, ...set }, station);
+  }
   await db.transaction().execute(async (trx) => {
     await trx.updateTable('deployments').set(set).where('id', '=', deploymentId).execute();
     await recordAudit(trx, {
@@ -239,14 +303,6 @@ export async function updateDeployment(
     });
   });
   const { deployment, station } = await getDeployment(db, project.id, deploymentId);
-  const retime = [
-    'start',
-    'end',
-    'timezone',
-    'clockOffsetSeconds',
-    'lastWorking',
-    'cameraSerial',
-  ].some((k) => k in patch);
   if (retime) await refreshDeploymentPhotos(db, project, deployment, station);
   return deployment;
 }
@@ -302,6 +358,13 @@ async function updateDeploymentWithFix(
   record: ClockFixRecord,
   actorId: string,
 ): Promise<DeploymentsTable> {
+  const { station } = await getDeployment(db, project.id, deployment.id);
+  await assertSightingsKeepTheirPhotos(
+    db,
+    project,
+    { ...deployment, clock_offset_seconds: offset },
+    station,
+  );
   await db.transaction().execute(async (trx) => {
     await trx
       .updateTable('deployments')

@@ -1,7 +1,7 @@
-import Fuse from 'fuse.js';
 import type { DuplicateEvidence, DuplicateSuggestion } from '../../shared/curate';
 import type { Db } from '../db/database';
 import { CATALOGUE_SEARCH, textScores } from './catalogue-cache';
+import { CatalogueSearch } from './catalogue-search';
 import { coverageOf, referencesOf } from './individuals.service';
 
 /** Minutes within which two single-flank records at one station suggest the same pass. */
@@ -129,7 +129,7 @@ export async function suggestDuplicates(db: Db, projectId: string): Promise<Dupl
       .filter((s) => s.individual_id === i.id)
       .map((s) => ({ eventId: s.eventId, stationId: s.station_id, time: Date.parse(s.start) })),
   }));
-  const fuse = new Fuse(profiles, CATALOGUE_SEARCH);
+  const search = new CatalogueSearch(profiles, CATALOGUE_SEARCH);
   const refs = await referencesOf(
     db,
     profiles.map((p) => p.id),
@@ -137,7 +137,7 @@ export async function suggestDuplicates(db: Db, projectId: string): Promise<Dupl
   const out: DuplicateSuggestion[] = [];
   for (const [i, a] of profiles.entries()) {
     const alike = a.notes.trim()
-      ? textScores(fuse, [a.notes, ...a.tags].join(', '))
+      ? textScores(search, [a.notes, ...a.tags].join(', '))
       : new Map<string, number>();
     for (const b of profiles.slice(i + 1)) {
       const key = a.id < b.id ? `${a.id}|${b.id}` : `${b.id}|${a.id}`;

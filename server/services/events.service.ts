@@ -31,7 +31,7 @@ export function groupByInterval<T extends { taken_at: string }>(
   return groups;
 }
 
-function eligible(flags: string): boolean {
+export function eligible(flags: string): boolean {
   const list = JSON.parse(flags) as PhotoFlag[];
   return !list.some((f) => KEEP_OUT_OF_EVENTS.includes(f));
 }

@@ -26,18 +26,24 @@ export async function leaseNextSighting(
   const now = new Date();
   const until = new Date(now.getTime() + IDENTIFY_LEASE_MS).toISOString();
   const skip = skipped.length ? sql`and s.id not in (${sql.join(skipped)})` : sql``;
+  const takeable = sql`s.project_id = ${projectId}
+        and not exists (select 1 from calls c where c.sighting_id = s.id and c.reviewer_id = ${userId})
+        ${skip}`;
+  const free = sql`(s.lease_holder is null or s.lease_until < ${now.toISOString()} or s.lease_holder = ${userId})`;
+  // The reviewer's own lease first (a reload gets the same sighting), then second reviews, then
+  // first calls, each oldest event first: every step walks an index and stops at its first row.
   const result = await sql<{ id: string }>`
     update sightings set lease_holder = ${userId}, lease_until = ${until}
-    where id = (
-      select s.id from sightings s join events e on e.id = s.event_id
-      where s.project_id = ${projectId}
-        and s.state in ('open', 'proposed')
-        and (s.lease_holder is null or s.lease_until < ${now.toISOString()} or s.lease_holder = ${userId})
-        and not exists (select 1 from calls c where c.sighting_id = s.id and c.reviewer_id = ${userId})
-        ${skip}
-      order by case when s.lease_holder = ${userId} then 0 else 1 end,
-               case s.state when 'proposed' then 0 else 1 end, e.start, s.id
-      limit 1)
+    where id = coalesce(
+      (select s.id from sightings s
+        where s.lease_holder = ${userId} and s.state in ('open', 'proposed') and ${takeable}
+        order by s.queue_start, s.id limit 1),
+      (select s.id from sightings s
+        where s.state = 'proposed' and ${free} and ${takeable}
+        order by s.queue_start, s.id limit 1),
+      (select s.id from sightings s
+        where s.state = 'open' and ${free} and ${takeable}
+        order by s.queue_start, s.id limit 1))
     returning id`.execute(db);
   return result.rows[0]?.id ?? null;
 }

@@ -7,7 +7,6 @@
  * invented (seeded random numbers), not field data; it only gives the text-and-space ranking a
  * realistic amount of ambiguity.
  */
-import Fuse from 'fuse.js';
 import { hashString, Rng } from '../../seeds/photos/random';
 import {
   CATALOGUE_SEARCH,
@@ -15,6 +14,7 @@ import {
   type PoolEntry,
 } from '../../server/services/catalogue-cache';
 import type { RankingContext } from '../../server/services/candidates.service';
+import { CatalogueSearch } from '../../server/services/catalogue-search';
 
 const GRID = 3;
 const SPACING_M = 2000;
@@ -93,7 +93,7 @@ export function syntheticSurvey(individuals: readonly string[]): SyntheticSurvey
       version: 0,
       entries,
       byId: new Map(entries.map((e) => [e.id, e])),
-      fuse: new Fuse(entries, CATALOGUE_SEARCH),
+      search: new CatalogueSearch(entries, CATALOGUE_SEARCH),
     },
   };
 }

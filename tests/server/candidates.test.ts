@@ -1,4 +1,3 @@
-import Fuse from 'fuse.js';
 import { describe, expect, it } from 'vitest';
 import { rankCandidates } from '../../server/services/candidates.service';
 import {
@@ -6,6 +5,7 @@ import {
   type CandidatePool,
   type PoolEntry,
 } from '../../server/services/catalogue-cache';
+import { CatalogueSearch } from '../../server/services/catalogue-search';
 import { demoSeason } from '../../seeds/demo-season';
 import { describeIndividual, makeIndividual } from '../../seeds/photos/index';
 import { demoStations } from '../../seeds/scenario';
@@ -21,7 +21,7 @@ function poolOf(entries: PoolEntry[]): CandidatePool {
     version: 0,
     entries,
     byId: new Map(entries.map((e) => [e.id, e])),
-    fuse: new Fuse(entries, CATALOGUE_SEARCH),
+    search: new CatalogueSearch(entries, CATALOGUE_SEARCH),
   };
 }
 
