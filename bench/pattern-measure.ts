@@ -56,12 +56,26 @@ export interface QueryRun {
   readonly rankCpuMs: number[];
 }
 
-/** Ranks every query (and every unknown) against a catalogue through the pool. */
+/**
+ * The flank a reviewer would record for a query photo: the one it shows (a mirrored photo of a
+ * left flank looks like a right flank).
+ */
+export function recordedFlank(plan: LoadedQuery['plan']): 'left' | 'right' {
+  if (plan.condition !== 'mirrored') return plan.flank;
+  return plan.flank === 'left' ? 'right' : 'left';
+}
+
+/**
+ * Ranks every query (and every unknown) against a catalogue through the pool; with `flankAware`
+ * the recorded flank is passed as the app does (the photo as seen against that flank's
+ * references, flipped against the other's), else both orientations meet every reference.
+ */
 export async function runQueries(
   pool: PatternPool,
   source: CatalogueSource,
   queries: readonly LoadedQuery[],
   unknown: readonly LoadedQuery[],
+  flankAware = false,
 ): Promise<QueryRun> {
   const run: QueryRun = { outcomes: [], unknown: [], shortlistMs: [], rankMs: [], rankCpuMs: [] };
   for (const [list, out] of [
@@ -69,9 +83,10 @@ export async function runQueries(
     [unknown, run.unknown],
   ] as const) {
     for (const q of list) {
-      const [, slMs] = await timed(() => source.catalogue.shortlist(q.features));
+      const options = flankAware ? { flank: recordedFlank(q.plan) } : {};
+      const [, slMs] = await timed(() => source.catalogue.shortlist(q.features, options));
       const cpu = process.cpuUsage();
-      const [ranked, ms] = await timed(() => pool.rank(q.features, source));
+      const [ranked, ms] = await timed(() => pool.rank(q.features, source, options));
       const used = process.cpuUsage(cpu);
       run.shortlistMs.push(slMs);
       run.rankMs.push(ms);

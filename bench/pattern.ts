@@ -3,7 +3,7 @@
  * accuracy per condition on held-out individuals, score distributions for true and false pairs,
  * query time against catalogues of 500 and 5,000 individuals (2 flanks × 3 references each) beside
  * a brute-force baseline, and a 500-iteration memory check.
- * Run: npx tsx bench/pattern.ts [--quick] [--set train]
+ * Run: npx tsx bench/pattern.ts [--quick] [--set train] [--flank] [--no-baseline]
  * The first run paints ~1,100 photos (~7 min on one core); later runs read bench/.out.
  */
 import { PATTERN_PARAMS } from '../server/pattern/types';
@@ -14,6 +14,8 @@ import { bruteForce, extractionTimes, memoryCheck, runQueries } from './pattern-
 import { buildCatalogue, loadSets, setNames, type LoadedSets } from './pattern-sets';
 
 const quick = process.argv.includes('--quick');
+/** Pass each query's recorded flank, as Identify does (default: flank unknown, both ways). */
+const flankAware = process.argv.includes('--flank');
 const setKind = process.argv[process.argv.indexOf('--set') + 1] === 'train' ? 'train' : 'eval';
 const sizes = quick
   ? { catalogue: 15, unknown: 4, distractors: 30 }
@@ -63,7 +65,7 @@ function printScores(outcomes: readonly QueryOutcome[], unknown: readonly QueryO
 async function accuracySection(pool: PatternPool, sets: LoadedSets) {
   const real = [...sets.references, ...sets.distractors];
   const built = buildCatalogue(real, sets.distractors, 0);
-  const run = await runQueries(pool, built.source, sets.queries, sets.unknown);
+  const run = await runQueries(pool, built.source, sets.queries, sets.unknown, flankAware);
   const individuals = new Set(real.map((r) => r.individualId)).size;
   printAccuracy(
     `Accuracy, ${sets.queries.length} held-out queries against ${individuals} painted individuals ` +
@@ -80,7 +82,7 @@ async function scaleSection(pool: PatternPool, sets: LoadedSets, extractMs: numb
   const medians: Record<number, number> = {};
   for (const n of quick ? [500] : [500, 5000]) {
     const built = buildCatalogue([...sets.references, ...sets.distractors], sets.distractors, n);
-    const run = await runQueries(pool, built.source, sets.queries, []);
+    const run = await runQueries(pool, built.source, sets.queries, [], flankAware);
     const acc = accuracyTable(run.outcomes).at(-1);
     medians[n] = median(run.rankMs);
     rows.push([
@@ -142,7 +144,10 @@ async function baselineSection(sets: LoadedSets, medians: Record<number, number>
 }
 
 async function main(): Promise<void> {
-  console.log(`Pattern benchmark (${setKind} set${quick ? ', quick' : ''}); synthetic photos only`);
+  console.log(
+    `Pattern benchmark (${setKind} set${quick ? ', quick' : ''}, ` +
+      `${flankAware ? 'recorded flank passed as Identify does' : 'flank unknown'}); synthetic photos only`,
+  );
   const pool = createPatternPool(1);
   try {
     const sets = await loadSets(pool, setNames(setKind, sizes));
@@ -160,6 +165,7 @@ async function main(): Promise<void> {
     );
     await accuracySection(pool, sets);
     const medians = await scaleSection(pool, sets, ex.bothMs);
+    if (process.argv.includes('--no-baseline')) return;
     await baselineSection(sets, medians);
     const iterations = quick ? 100 : 500;
     const mem = await memoryCheck(pool, sets.queries[0].plan, sets.references, iterations);
