@@ -5,14 +5,16 @@ import { newId } from './ids';
 /** Kinds of durable background work. */
 export type JobKind = 'derivatives' | 'blur' | 'pattern';
 
-/** Adds a job (inside the caller's transaction when one is passed). */
+/** Adds a job (inside the caller's transaction when one is passed), due now or after a delay. */
 export async function enqueueJob(
   db: Db,
   kind: JobKind,
   payload: unknown,
   maxAttempts = 3,
+  delayMs = 0,
 ): Promise<string> {
   const now = new Date().toISOString();
+  const due = delayMs > 0 ? new Date(Date.now() + delayMs).toISOString() : now;
   const id = newId();
   await db
     .insertInto('jobs')
@@ -23,7 +25,7 @@ export async function enqueueJob(
       status: 'queued',
       attempts: 0,
       max_attempts: maxAttempts,
-      run_after: now,
+      run_after: due,
       locked_at: null,
       error: null,
       created_at: now,

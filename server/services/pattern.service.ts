@@ -26,6 +26,12 @@ export interface PatternJob {
   readonly crop: string;
 }
 
+/**
+ * Pattern jobs wait this long before they run: a reviewer drawing a crop box often adjusts it a
+ * few times in a row, and photo previews (which reviewers wait for) go first.
+ */
+export const PATTERN_JOB_DELAY_MS = 5000;
+
 /** The vocabulary features must use to count as ready. */
 export function currentVocabulary(): string {
   return defaultVocabulary().id;
@@ -84,7 +90,13 @@ export async function queuePatternFeatures(db: Db, job: PatternJob): Promise<boo
     .where('id', '=', job.photoId)
     .executeTakeFirst();
   if (!photo?.stored_path) return false;
-  await enqueueJob(db, 'pattern', { photoId: job.photoId, crop: job.crop });
+  await enqueueJob(
+    db,
+    'pattern',
+    { photoId: job.photoId, crop: job.crop },
+    3,
+    PATTERN_JOB_DELAY_MS,
+  );
   return true;
 }
 
