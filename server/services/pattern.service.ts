@@ -143,6 +143,33 @@ export async function queueMissingPatternWork(db: Db, projectId?: string): Promi
   return queued;
 }
 
+/**
+ * Whether a photo and crop is still some sighting's best photo and crop, or a reference photo's
+ * (a crop adjusted several times before its job ran leaves jobs nobody needs any more).
+ */
+async function stillWanted(db: Db, job: PatternJob): Promise<boolean> {
+  const sighting = await db
+    .selectFrom('sightings')
+    .select('id')
+    .where('best_photo_id', '=', job.photoId)
+    .where(sql<string>`coalesce(crop, '')`, '=', job.crop)
+    .executeTakeFirst();
+  if (sighting) return true;
+  const reference = await db
+    .selectFrom('reference_photos')
+    .select('photo_id')
+    .where('photo_id', '=', job.photoId)
+    .executeTakeFirst();
+  if (!reference) return false;
+  const latest = await db
+    .selectFrom('sightings')
+    .select('crop')
+    .where('best_photo_id', '=', job.photoId)
+    .orderBy('updated_at', 'desc')
+    .executeTakeFirst();
+  return (latest?.crop ?? '') === job.crop;
+}
+
 /** Computes and stores one photo's features in the pattern worker pool. */
 export function patternFeaturesHandler(
   db: Db,
@@ -156,7 +183,7 @@ export function patternFeaturesHandler(
       .select(['stored_path'])
       .where('id', '=', job.photoId)
       .executeTakeFirst();
-    if (!photo?.stored_path) return;
+    if (!photo?.stored_path || !(await stillWanted(db, job))) return;
     const bytes = await readFile(storage.absolute(photo.stored_path));
     const crop = job.crop ? (JSON.parse(job.crop) as Crop) : null;
     const features = await pool.extract(new Uint8Array(bytes), crop, { mirror: true });

@@ -199,4 +199,30 @@ describe('coat pattern on the Identify screen', () => {
     expect(JSON.parse(row.crop)).toMatchObject({ x: expect.any(Number), w: expect.any(Number) });
     expect(row.keypoints).toBeGreaterThan(100);
   });
+
+  it('should compute only the crop a sighting ends with when its box is adjusted several times', async () => {
+    await drainJobs(ctx.db, 90_000);
+    const sightingId = sightings[2]!;
+    const boxes = [
+      { x: 0.1, y: 0.1, w: 0.5, h: 0.5 },
+      { x: 0.12, y: 0.1, w: 0.5, h: 0.5 },
+      { x: 0.14, y: 0.1, w: 0.5, h: 0.5 },
+    ];
+    // Nobody has called this sighting yet: it is still open, so its crop box may change.
+    for (const crop of boxes) {
+      const res = await reviewer.patch(url(`/sightings/${sightingId}`), { crop });
+      expect(res.status).toBe(200);
+    }
+    ctx.ingest.runner.kick();
+    await drainJobs(ctx.db, 90_000);
+    const rows = await ctx.db
+      .selectFrom('pattern_features')
+      .select('crop')
+      .where('photo_id', '=', photos[2]!)
+      .execute();
+    const computed = rows.map((r) => JSON.parse(r.crop || 'null') as object | null);
+    expect(computed).toContainEqual(boxes[2]);
+    expect(computed).not.toContainEqual(boxes[0]);
+    expect(computed).not.toContainEqual(boxes[1]);
+  });
 });
