@@ -49,6 +49,9 @@ function trigramCodes(text: string): Set<number> {
   return out;
 }
 
+/** log(1 + 2): the weight of a piece held by half the catalogue. */
+const COMMON_PIECE_WEIGHT = Math.log(3);
+
 function normalised(text: string): string {
   return text.toLowerCase().replace(/\s+/g, ' ');
 }
@@ -139,9 +142,13 @@ export class CatalogueSearch<T extends { id: string }> {
     const scores = this.scores;
     scores.fill(0);
     let full = 0;
-    for (const g of trigramCodes(normalised(phrase))) {
-      const posting = this.postings.get(g);
-      if (!posting) continue;
+    const found = [...trigramCodes(normalised(phrase))]
+      .map((g) => this.postings.get(g))
+      .filter((x) => x !== undefined);
+    // Pieces held by more than half the catalogue (" on", "lef") cost the most and tell the least:
+    // left out unless the phrase has nothing else.
+    const telling = found.filter((x) => x.weight >= COMMON_PIECE_WEIGHT);
+    for (const posting of telling.length ? telling : found) {
       full += posting.weight;
       const { items, keyWeights, weight } = posting;
       for (let k = 0; k < items.length; k++) scores[items[k]!]! += weight * keyWeights[k]!;
