@@ -126,5 +126,12 @@ export async function cachedDatabase<T>(
     }
   }
   copyFileSync(cacheDb, join(dataDir, 'maculo.sqlite'));
+  // A cache built before a newer migration is brought up to date, as the server would at start.
+  const { db } = openDatabase(join(dataDir, 'maculo.sqlite'));
+  try {
+    await migrateToLatest(db);
+  } finally {
+    await db.destroy();
+  }
   return JSON.parse(readFileSync(cacheMeta, 'utf8')) as T;
 }

@@ -43,6 +43,8 @@ export interface SearchFigures {
   speedup: number;
   /** Share of queries where both find the same best score, and of top-five scores found. */
   sameBest: number;
+  /** Share of queries whose best score is within 0.01 of the baseline's (no clearly better miss). */
+  nearBest: number;
   topFiveOverlap: number;
   /** The slowest queries, for looking into. */
   slowest: { query: string; ms: number }[];
@@ -124,6 +126,7 @@ export function measureSearch(
   let hits = 0;
   let baseHits = 0;
   let sameBest = 0;
+  let nearBest = 0;
   let overlap = 0;
   const deadline = performance.now() + budgetSeconds * 1000;
   for (const query of list) {
@@ -147,6 +150,7 @@ export function measureSearch(
     const theirScores = theirs.map((id) => base.get(id)!);
     if (theirScores.length === 0 || Math.abs((ourScores[0] ?? 0) - theirScores[0]!) < 1e-9)
       sameBest++;
+    if (theirScores.length === 0 || (ourScores[0] ?? 0) >= theirScores[0]! - 0.01) nearBest++;
     if (theirScores.length)
       overlap +=
         theirScores.filter((v, k) => Math.abs((ourScores[k] ?? -1) - v) < 1e-9).length /
@@ -167,6 +171,7 @@ export function measureSearch(
     baseline,
     speedup: round(baseline.medianMs / all.medianMs, 1),
     sameBest: round(sameBest / times.length, 3),
+    nearBest: round(nearBest / times.length, 3),
     topFiveOverlap: round(overlap / times.length, 3),
     slowest: timed.sort((a, b) => b.ms - a.ms).slice(0, 5),
     examples: list.slice(0, 8).map((q) => q.text),

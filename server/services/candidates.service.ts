@@ -127,6 +127,106 @@ function flankSignal(
   return { score: 0.5, reason: null };
 }
 
+/** A pool's detections and flanks as flat arrays, built once per pool for the numeric pass. */
+interface PackedPool {
+  stations: string[];
+  /** Detections of entry i are at first[i] ≤ j < first[i + 1]. */
+  first: Int32Array;
+  station: Int32Array;
+  time: Float64Array;
+  /** Bit 1: left flank on file; bit 2: right flank on file. */
+  flanks: Uint8Array;
+}
+
+const packedPools = new WeakMap<CandidatePool, PackedPool>();
+
+function packed(pool: CandidatePool): PackedPool {
+  let p = packedPools.get(pool);
+  if (p) return p;
+  const index = new Map<string, number>();
+  const n = pool.entries.length;
+  const total = pool.entries.reduce((sum, e) => sum + e.detections.length, 0);
+  p = {
+    stations: [],
+    first: new Int32Array(n + 1),
+    station: new Int32Array(total),
+    time: new Float64Array(total),
+    flanks: new Uint8Array(n),
+  };
+  let j = 0;
+  pool.entries.forEach((entry, i) => {
+    p!.first[i] = j;
+    for (const d of entry.detections) {
+      let k = index.get(d.stationId);
+      if (k === undefined) {
+        k = p!.stations.length;
+        index.set(d.stationId, k);
+        p!.stations.push(d.stationId);
+      }
+      p!.station[j] = k;
+      p!.time[j] = d.time;
+      j++;
+    }
+    p!.flanks[i] = (knowsFlank(entry, 'left') ? 1 : 0) | (knowsFlank(entry, 'right') ? 2 : 0);
+  });
+  p.first[n] = j;
+  packedPools.set(pool, p);
+  return p;
+}
+
+/**
+ * Every entry's ranking score without any wording: the same signals and weights as `assess` in
+ * rankCandidates (a test holds the two to the same numbers), on flat arrays.
+ */
+export function quickScores(
+  pool: CandidatePool,
+  ctx: RankingContext,
+  text: Map<string, number>,
+  withText: boolean,
+): Float64Array {
+  const p = packed(pool);
+  const here = ctx.stations.get(ctx.stationId);
+  const near = new Float64Array(p.stations.length).fill(NaN);
+  const metres = new Float64Array(p.stations.length);
+  if (here)
+    p.stations.forEach((id, k) => {
+      const at = ctx.stations.get(id);
+      if (!at) return;
+      metres[k] = Math.hypot(at.x - here.x, at.y - here.y);
+      near[k] = Math.exp(-(metres[k]! * metres[k]!) / (2 * SPACE_SCALE_M * SPACE_SCALE_M));
+    });
+  const flankBit = ctx.flank === 'left' ? 1 : ctx.flank === 'right' ? 2 : 0;
+  const sexKnown = ctx.sex && ctx.sex !== 'unknown' ? ctx.sex : null;
+  const weights = (withText ? 0.45 : 0) + 0.35 + 0.2 + (ctx.pattern ? 0.6 : 0);
+  const out = new Float64Array(pool.entries.length);
+  for (let i = 0; i < out.length; i++) {
+    const entry = pool.entries[i]!;
+    let score = withText ? 0.45 * (text.get(entry.id) ?? 0) : 0;
+    let best = 0;
+    let penalty = 1;
+    if (here)
+      for (let j = p.first[i]!; j < p.first[i + 1]!; j++) {
+        const k = p.station[j]!;
+        const n = near[k]!;
+        if (Number.isNaN(n)) continue;
+        const hours = Math.abs(ctx.time - p.time[j]!) / 3_600_000;
+        const m = metres[k]!;
+        if (hours > 0 && m / hours > MAX_SPEED_M_PER_H && m > 2000) penalty = 0.35;
+        if (n <= best) continue;
+        const st = n * (0.5 + 0.5 * Math.exp(-hours / 24 / RECENCY_DAYS));
+        if (st > best) best = st;
+      }
+    score += 0.35 * best;
+    const f = p.flanks[i]!;
+    score += 0.2 * (flankBit ? (f & flankBit ? 1 : 0) : ctx.flank === 'both' ? (f ? 1 : 0) : 0.5);
+    if (ctx.pattern) score += 0.6 * (ctx.pattern.get(entry.id)?.score ?? 0);
+    let factor = penalty;
+    if (sexKnown && entry.sex !== 'unknown' && sexKnown !== entry.sex) factor *= 0.3;
+    out[i] = (score / weights) * factor;
+  }
+  return out;
+}
+
 /**
  * Ranks the catalogue for a sighting. Signals, each with its reason shown to the reviewer: text the
  * reviewer typed (fuse.js over code, nickname, tags and marking notes), space and time of earlier
@@ -184,12 +284,20 @@ export function rankCandidates(pool: CandidatePool, ctx: RankingContext, limit =
     }
     return { entry, score: (score / weights) * factor, reasons };
   };
-  // Score every animal without wording its reasons, then word the reasons of those shown.
-  const ranked = pool.entries.map((entry) => ({ entry, score: assess(entry, false).score }));
-  ranked.sort(
-    (a, b) =>
-      b.score - a.score || (a.entry.code < b.entry.code ? -1 : a.entry.code > b.entry.code ? 1 : 0),
-  );
+  // Score every animal in a lean numeric pass, then word the reasons of those shown.
+  const scores = quickScores(pool, ctx, text, query !== undefined && query !== '');
+  const better = (a: number, b: number) =>
+    scores[a]! > scores[b]! ||
+    (scores[a] === scores[b] && pool.entries[a]!.code < pool.entries[b]!.code);
+  const top: number[] = [];
+  for (let i = 0; i < scores.length; i++) {
+    if (top.length === limit && !better(i, top[top.length - 1]!)) continue;
+    let at = top.length;
+    while (at > 0 && better(i, top[at - 1]!)) at--;
+    top.splice(at, 0, i);
+    if (top.length > limit) top.pop();
+  }
+  const ranked = top.map((i) => ({ entry: pool.entries[i]! }));
   return ranked
     .slice(0, limit)
     .map(({ entry }) => assess(entry, true))

@@ -1,7 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { rankCandidates } from '../../server/services/candidates.service';
+import {
+  quickScores,
+  rankCandidates,
+  type RankingContext,
+} from '../../server/services/candidates.service';
 import {
   CATALOGUE_SEARCH,
+  textScores,
   type CandidatePool,
   type PoolEntry,
 } from '../../server/services/catalogue-cache';
@@ -148,5 +153,51 @@ describe('ranking signals', () => {
     const ranked = rankCandidates(pool, { ...ctx, query: 'kinked tail tip, notched right ear' });
     expect(ranked[0]!.individualId).toBe('P05');
     expect(ranked[0]!.reasons[0]!.signal).toBe('text');
+  });
+
+  it('should order animals by the same score it shows: the numeric pass agrees with the worded one', () => {
+    // Sixty demo leopards with detections spread over the grid and the season, some of them
+    // within an impossible journey, both sexes, left and right references (synthetic).
+    const codes = [...stations.keys()];
+    const entries = Array.from({ length: 60 }, (_, i) =>
+      entry(
+        `P${String(i + 10)}`,
+        Array.from({ length: 1 + (i % 4) }, (_, k) => ({
+          stationId: codes[(i * 7 + k * 3) % codes.length]!,
+          time: t0 - ((i * 13 + k * 29) % 60) * 3_600_000 * (k + 1),
+        })),
+        {
+          sex: i % 3 === 0 ? 'male' : i % 3 === 1 ? 'female' : 'unknown',
+          references:
+            i % 5 === 0 ? [{ photoId: 'r', flank: 'right', thumbUrl: '', previewUrl: '' }] : [],
+          flanks: new Set(i % 5 === 0 ? ['right'] : i % 2 ? ['left'] : ['both']),
+        },
+      ),
+    );
+    const pool = poolOf(entries);
+    const pattern = new Map(entries.map((e, i) => [e.id, { score: (i % 7) / 7, inliers: i }]));
+    const contexts: RankingContext[] = [
+      ctx,
+      { ...ctx, flank: 'right', sex: 'male' },
+      { ...ctx, flank: 'both', stationId: 'KH01', query: 'broken rosette on left shoulder' },
+      { ...ctx, flank: 'unknown', sex: 'female', pattern },
+    ];
+    for (const c of contexts) {
+      const shown = rankCandidates(pool, c, entries.length);
+      expect(shown).toHaveLength(entries.length);
+      const query = c.query?.trim();
+      const quick = quickScores(
+        pool,
+        c,
+        query ? textScores(pool.search, query, 40) : new Map(),
+        !!query,
+      );
+      for (const candidate of shown) {
+        const i = entries.findIndex((e) => e.id === candidate.individualId);
+        expect(candidate.score).toBeCloseTo(quick[i]!, 3);
+      }
+      for (let k = 1; k < shown.length; k++)
+        expect(shown[k - 1]!.score).toBeGreaterThanOrEqual(shown[k]!.score);
+    }
   });
 });
