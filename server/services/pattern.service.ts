@@ -330,12 +330,13 @@ export async function patternSignal(
     await queuePatternFeatures(db, key);
     const failed = await db
       .selectFrom('jobs')
-      .select('error')
+      .select('id')
       .where('kind', '=', 'pattern')
       .where('status', '=', 'failed')
       .where('payload', '=', JSON.stringify(key))
       .executeTakeFirst();
-    if (failed) throw new PatternError(failed.error ?? 'feature extraction failed', 'input');
+    // The job's own error may name server paths: the reviewer gets a plain reason.
+    if (failed) throw new PatternError('the features of this photo could not be computed', 'input');
     return { status: 'pending', scores: new Map(), references: built.catalogue.size };
   }
   const cacheKey = `${sighting.id}|${key.photoId}|${key.crop}|${query.computedAt}|${sighting.flank}|${built.signature.length}:${hashOf(built.signature)}`;

@@ -40,7 +40,8 @@ const individuals: string[] = [];
 const url = (path: string) => `/api/projects/${SLUG}${path}`;
 
 beforeAll(async () => {
-  ctx = await createTestContext();
+  // Failed jobs retry after milliseconds, not seconds, so the failure path below is quick.
+  ctx = await createTestContext({ JOB_RETRY_MS: '5' });
   const team = await seedTeam(ctx.db);
   ecologist = await signIn(ctx.app, team.users.ecologist.email);
   reviewer = await signIn(ctx.app, team.users.reviewer.email);
@@ -224,5 +225,29 @@ describe('coat pattern on the Identify screen', () => {
     expect(computed).toContainEqual(boxes[2]);
     expect(computed).not.toContainEqual(boxes[0]);
     expect(computed).not.toContainEqual(boxes[1]);
+  });
+
+  it('should rank without the pattern and say why when the features cannot be computed', async () => {
+    // A crop box of 8 × 6 pixels holds too little coat to describe: the job fails as bad input.
+    const tiny = { x: 0.5, y: 0.5, w: 0.01, h: 0.01 };
+    const res = await reviewer.patch(url(`/sightings/${sightings[2]}`), { crop: tiny });
+    expect(res.status).toBe(200);
+    ctx.ingest.runner.kick();
+    await drainJobs(ctx.db, 90_000);
+    const failed = await ctx.db
+      .selectFrom('jobs')
+      .select(['error', 'attempts'])
+      .where('kind', '=', 'pattern')
+      .where('status', '=', 'failed')
+      .execute();
+    expect(failed).toHaveLength(1);
+    expect(failed[0]!.error).toMatch(/too small/);
+    const next = await reviewer.get(url('/identify/next'));
+    expect(next.status).toBe(200);
+    expect(next.body.sighting.id).toBe(sightings[2]);
+    expect(next.body.pattern.state).toBe('unavailable');
+    expect(next.body.pattern.text).toMatch(/could not be computed.*ranked without it/);
+    expect(next.body.pattern.text).not.toMatch(/\//);
+    expect(next.body.candidates.length).toBeGreaterThan(0);
   });
 });
