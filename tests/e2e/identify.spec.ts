@@ -75,3 +75,23 @@ test('the catalogue lists the demo individuals and opens an individual page with
   await expect(page.getByTestId('timeline').locator('li').first()).toBeVisible();
   await expect(page.getByText('Do not share this map outside the team')).toBeVisible();
 });
+
+test('P draws the coat-pattern points matched between the sighting and the reference shown', async ({
+  page,
+}) => {
+  await signIn(page, 'curator@demo.test');
+  await page.goto('/p/kasiri-leopards/identify');
+  await expect(page.getByTestId('sighting-info')).toBeVisible();
+  const drawing = page.getByTestId('pattern-matches');
+  // The demo's features are computed in the background after start: reload until they are.
+  await expect(async () => {
+    await page.reload();
+    await expect(page.getByTestId('sighting-info')).toBeVisible();
+    await page.keyboard.press('p');
+    await expect(drawing).toBeVisible({ timeout: 3000 });
+  }).toPass({ timeout: 90_000 });
+  await expect(page.getByText(/Coat pattern: \d+ matching points/)).toBeVisible();
+  await expect(page.getByTestId('toggle-matches')).toHaveAttribute('aria-pressed', 'true');
+  await page.keyboard.press('p');
+  await expect(drawing).toBeHidden();
+});
