@@ -16,6 +16,25 @@ export interface SortedDemo {
   }[];
 }
 
+/**
+ * The box a reviewer would draw around the animal: the painter's ground-truth box with a tenth of
+ * its size as margin, in fractions of the photo (stored as JSON, as the API stores crops).
+ */
+function cropAround(photo: SeededPhoto): string | null {
+  const box = photo.truth.bbox;
+  if (!box) return null;
+  const { width, height } = photo.plan.spec;
+  const mx = box.width * 0.1;
+  const my = box.height * 0.1;
+  const x0 = Math.max(0, box.x - mx) / width;
+  const y0 = Math.max(0, box.y - my) / height;
+  const x1 = Math.min(width, box.x + box.width + mx) / width;
+  const y1 = Math.min(height, box.y + box.height + my) / height;
+  if (x1 - x0 <= 0 || y1 - y0 <= 0) return null;
+  const r = (v: number) => Math.round(v * 10000) / 10000;
+  return JSON.stringify({ x: r(x0), y: r(y0), w: r(x1 - x0), h: r(y1 - y0) });
+}
+
 function labelOf(kinds: SeededPhoto['truth'][]): { label: string; species: string | null } {
   const count = new Map<string, number>();
   for (const t of kinds) {
@@ -111,7 +130,7 @@ export async function seedDemoSorting(
             flank,
             quality,
             best_photo_id: best.id,
-            crop: null,
+            crop: cropAround(byPhoto.get(best.id)!),
             sex: null,
             age_class: null,
             state: 'open',
