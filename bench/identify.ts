@@ -137,6 +137,12 @@ async function main(): Promise<void> {
   const dataDir = mkdtempSync(join(tmpdir(), 'maculo-bench-identify-'));
   try {
     const project = await cachedProject(size, dataDir);
+    // The rows stand for photos whose files are not here (as after importing a package without
+    // media): without this the server would queue coat-pattern work for 35,000 missing files at
+    // start and fail it in the background during the run. bench:pattern measures that signal.
+    const { sqlite: plain } = openDatabase(join(dataDir, 'maculo.sqlite'));
+    plain.exec("update photos set stored_path = '', status = 'external'");
+    plain.close();
     console.log('  profiling the endpoint in-process…');
     const diagnosis = await diagnoseIdentify(dataDir, project.projectId, project.reviewers[0]!.id);
     const profDir = join(OUT_DIR, 'identify-profile');

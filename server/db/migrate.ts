@@ -10,6 +10,7 @@ import * as m0007 from './migrations/0007_exports';
 import * as m0008 from './migrations/0008_sort_queue';
 import * as m0009 from './migrations/0009_identify_queue';
 import * as m0010 from './migrations/0010_pattern';
+import * as m0011 from './migrations/0011_pattern_jobs';
 
 /** Migrations in order; imported statically so they work the same under tsx, tests and builds. */
 const MIGRATIONS: Record<string, Migration> = {
@@ -23,6 +24,7 @@ const MIGRATIONS: Record<string, Migration> = {
   '0008_sort_queue': m0008,
   '0009_identify_queue': m0009,
   '0010_pattern': m0010,
+  '0011_pattern_jobs': m0011,
 };
 
 class StaticProvider implements MigrationProvider {

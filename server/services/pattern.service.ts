@@ -137,8 +137,14 @@ export async function missingPatternWork(db: Db, projectId?: string): Promise<Pa
 /** Queues every missing photo and crop; returns how many jobs were added. */
 export async function queueMissingPatternWork(db: Db, projectId?: string): Promise<number> {
   let queued = 0;
-  for (const job of await missingPatternWork(db, projectId)) {
-    if (await queuePatternFeatures(db, job)) queued++;
+  const work = await missingPatternWork(db, projectId);
+  // In transactions of 500 (one commit each, not one per job), giving the event loop back between
+  // them: SQLite calls block it, and the server may already be answering.
+  for (let i = 0; i < work.length; i += 500) {
+    await db.transaction().execute(async (trx) => {
+      for (const job of work.slice(i, i + 500)) if (await queuePatternFeatures(trx, job)) queued++;
+    });
+    await new Promise((resolve) => setImmediate(resolve));
   }
   return queued;
 }
