@@ -5,7 +5,7 @@ import tseslint from 'typescript-eslint';
 
 export default tseslint.config(
   {
-    ignores: ['dist/**', 'node_modules/**', '.angular/**', 'test-results/**', 'tests/.tmp/**', 'uploads/**', 'data/**', 'bench/.out/**'],
+    ignores: ['dist/**', 'node_modules/**', '.angular/**', 'test-results/**', 'tests/.tmp/**', 'uploads/**', 'data/**', 'bench/.out/**', '.scratch/**'],
   },
   {
     files: ['**/*.ts'],
