@@ -235,7 +235,8 @@ describe('card upload', () => {
     // volunteer's copy has the metadata segments (with the camera GPS) cut out, pixels untouched.
     const original = await ecologist.get(`/api/photos/${id}/original`).buffer(true);
     expect(Buffer.compare(original.body as Buffer, big)).toBe(0);
-    const stripped = (await volunteer.get(`/api/photos/${id}/original`).buffer(true)).body as Buffer;
+    const stripped = (await volunteer.get(`/api/photos/${id}/original`).buffer(true))
+      .body as Buffer;
     expect(await exifr.gps(stripped).catch(() => undefined)).toBeUndefined();
     expect(imageSize(stripped)).toMatchObject({ width: 2000, height: 1200 });
     expect(stripped.length).toBeLessThan(big.length);
