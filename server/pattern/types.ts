@@ -123,7 +123,7 @@ export const PATTERN_PARAMS = {
   cellWidth: 0.05,
   cellHeight: 0.08,
   /** Reference-orientation pairs the shortlist passes to the pre-verification. */
-  shortlistPairs: 400,
+  shortlistPairs: 800,
   /** Window (fractions of the crop) in which two keypoints with the same word may match. */
   gateWidth: 0.15,
   gateHeight: 0.25,
